@@ -18,13 +18,19 @@ export interface RotationChannel {
   interpolation: Interpolation;
   /** Key times in seconds as stored (may be broken: key-times checks them). */
   times: Float32Array;
-  /** Key values, 4 floats per key (x, y, z, w), decoded to floats. Length 4 × keyCount. */
+  /**
+   * Key values, 4 floats per key (x, y, z, w), decoded to floats. Length 4 × keyCount.
+   * May be a view of the Document's own accessor data: treat as read-only.
+   */
   values: Float32Array;
   /** CUBICSPLINE in-tangents (4 per key), else null. */
   inTangents: Float32Array | null;
   /** CUBICSPLINE out-tangents (4 per key), else null. */
   outTangents: Float32Array | null;
-  /** Keys usable by value rules: min(input count, output elements / (3 for CUBICSPLINE else 1)). */
+  /**
+   * Keys usable by value rules: min(input count, output elements / (3 for CUBICSPLINE else 1)).
+   * 0 when the output is not a 4-component type (no quaternion can be read from it).
+   */
   keyCount: number;
   /** Raw facts for the structural rules (key-times, rotation-encoding). */
   raw: {
@@ -36,6 +42,10 @@ export interface RotationChannel {
     /** glTF componentType enum (5126 FLOAT, 5120 BYTE, 5121 UNSIGNED_BYTE, 5122 SHORT, 5123 UNSIGNED_SHORT...). */
     componentType: number;
     normalized: boolean;
+    /** Input accessor type as in glTF (`SCALAR` expected); set by the reader, optional for hand-built channels. */
+    inputType?: string;
+    /** Input accessor componentType (5126 FLOAT expected). */
+    inputComponentType?: number;
   };
   /** Smallest step the encoding can represent (0 for float): quantized tolerances derive from it. */
   quantizationStep: number;
