@@ -1,0 +1,103 @@
+/**
+ * Server configuration, read from the environment once and validated with zod.
+ * Every server module and script asks `getConfig()` instead of reading `process.env`, so a
+ * bad value fails at start-up with one line that says what to fix. Variables (all optional):
+ *
+ * | Variable              | Default                      | Meaning                                                |
+ * | --------------------- | ---------------------------- | ------------------------------------------------------ |
+ * | DATABASE_URL          | sqlite:<DATA_DIR>/orientry.db | `sqlite:path`, `sqlite://path`, `sqlite::memory:`      |
+ * | DATA_DIR              | data                         | Folder for the database, the auth secret and files     |
+ * | AUTH_SECRET           | kept in <DATA_DIR>/auth-secret | Session signing secret, at least 32 characters       |
+ * | ORIGIN                | (from the request)           | Public URL, e.g. https://orientry.example (adapter-node) |
+ * | SIGNIN_MAX_FAILURES   | 5                            | Failed sign-ins allowed per e-mail and address ...      |
+ * | SIGNIN_WINDOW_MINUTES | 15                           | ... within this many minutes                           |
+ *
+ * PORT and HOST are read by adapter-node itself.
+ */
+import path from 'node:path';
+import { z } from 'zod';
+import { ConfigError } from './errors';
+import { parseDatabaseUrl, type DatabaseLocation } from './db/database-url';
+
+/** The validated server configuration. */
+export interface ServerConfig {
+  /** Absolute path of the data folder. */
+  dataDir: string;
+  database: DatabaseLocation & { url: string };
+  /** AUTH_SECRET as given; undefined means "use the one kept in the data folder" (see auth-secret.ts). */
+  authSecret: string | undefined;
+  /** Public origin when set (no trailing slash). */
+  origin: string | undefined;
+  isProduction: boolean;
+  limits: {
+    signInMaxFailures: number;
+    signInWindowMinutes: number;
+  };
+}
+
+const envSchema = z.object({
+  DATABASE_URL: z.string().optional(),
+  DATA_DIR: z.string().optional(),
+  AUTH_SECRET: z
+    .string()
+    .min(32, 'must be at least 32 characters (for example from "openssl rand -hex 32")')
+    .optional(),
+  ORIGIN: z.url({ protocol: /^https?$/, error: 'must be an http(s) URL such as https://orientry.example' }).optional(),
+  NODE_ENV: z.string().optional(),
+  SIGNIN_MAX_FAILURES: z.coerce.number().int().min(1).max(1000).default(5),
+  SIGNIN_WINDOW_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60)
+    .default(15)
+});
+
+/**
+ * Builds the configuration from an environment (default `process.env`) without touching the disk.
+ * Blank variables count as unset.
+ * @throws ConfigError whose one-line message names the variable, its value and the fix.
+ */
+export function readConfig(env: Record<string, string | undefined> = process.env, cwd = process.cwd()): ServerConfig {
+  const present = Object.fromEntries(
+    Object.entries(env).filter(([, value]) => value !== undefined && value.trim() !== '')
+  );
+  const parsed = envSchema.safeParse(present);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const name = String(issue.path[0]);
+    const shown = name === 'AUTH_SECRET' ? `${String(present[name]).length} characters` : `"${present[name]}"`;
+    throw new ConfigError(
+      'config.invalid',
+      `Orientry configuration: ${name} ${issue.message} (got ${shown}). Fix the environment variable or unset it.`,
+      { cause: parsed.error }
+    );
+  }
+  const values = parsed.data;
+  const dataDir = path.resolve(cwd, values.DATA_DIR ?? 'data');
+  const url = values.DATABASE_URL ?? `sqlite:${path.join(dataDir, 'orientry.db')}`;
+  return {
+    dataDir,
+    database: { ...parseDatabaseUrl(url, cwd), url },
+    authSecret: values.AUTH_SECRET,
+    origin: values.ORIGIN?.replace(/\/+$/, ''),
+    isProduction: values.NODE_ENV === 'production',
+    limits: {
+      signInMaxFailures: values.SIGNIN_MAX_FAILURES,
+      signInWindowMinutes: values.SIGNIN_WINDOW_MINUTES
+    }
+  };
+}
+
+let cached: ServerConfig | undefined;
+
+/** The process-wide configuration, read from `process.env` on first use. */
+export function getConfig(): ServerConfig {
+  cached ??= readConfig();
+  return cached;
+}
+
+/** Forgets the cached configuration, so tests and scripts can change the environment and read it again. */
+export function resetConfig(): void {
+  cached = undefined;
+}

@@ -1,0 +1,15 @@
+/**
+ * Every schema migration, in order. Listed explicitly (not found by a glob at run time) so the
+ * server bundle and the bundled scripts carry them. Append new ones; never edit an applied one.
+ */
+import type { QueryInterface } from 'sequelize';
+import * as initial from './0001-initial';
+
+/** One schema change: a unique name (stored once applied) and how to apply and undo it. */
+export interface Migration {
+  name: string;
+  up(queryInterface: QueryInterface): Promise<void>;
+  down(queryInterface: QueryInterface): Promise<void>;
+}
+
+export const MIGRATIONS: readonly Migration[] = [initial];
