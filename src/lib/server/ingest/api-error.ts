@@ -9,19 +9,20 @@ export interface ApiErrorBody {
   error: { code: string; message: string };
 }
 
+import { AppError } from '../errors';
+
 /**
  * An expected API failure: bad input, missing rights, unknown project, a limit reached.
  * Thrown anywhere below a route and turned into a response by {@link apiErrorResponse}.
  */
-export class ApiError extends Error {
+export class ApiError extends AppError {
   constructor(
     readonly status: number,
-    readonly code: string,
+    code: string,
     message: string,
     options?: { cause?: unknown }
   ) {
-    super(message, options);
-    this.name = 'ApiError';
+    super(code, message, options);
   }
 }
 

@@ -1,0 +1,354 @@
+/**
+ * Streams a multipart build upload to disk: each `file` part is written under its relative
+ * path inside an upload folder, hashed (SHA-256) and counted on the way, and the `meta` part is
+ * collected as text. Nothing holds a whole file in memory, and every limit is checked while
+ * the bytes flow, so a client learns which limit it hit.
+ *
+ * Design notes: after the first failure the parser is dropped and the rest of the body is read
+ * and discarded (up to {@link DRAIN_LIMIT_BYTES}) before answering. Answering while the client
+ * is still sending, or resetting the connection, makes many HTTP clients report a broken pipe
+ * instead of the 413 that names the limit.
+ */
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { Readable, Transform, type TransformCallback } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import busboy from 'busboy';
+import { ApiError } from './api-error';
+import type { IngestLimits } from './limits';
+import { validateUploadPath } from './upload-path';
+
+/** One file received into the upload folder. */
+export interface ReceivedFile {
+  /** Relative path as sent, validated (forward slashes). */
+  path: string;
+  /** Absolute path of the written file inside the upload folder. */
+  diskPath: string;
+  byteLength: number;
+  /** SHA-256 of the content, lowercase hex. */
+  sha256: string;
+}
+
+/** What a build upload carried. */
+export interface ReceivedUpload {
+  files: ReceivedFile[];
+  /** Text of the `meta` part. */
+  metaText: string;
+}
+
+/** Multipart field names of a build upload. */
+export const UPLOAD_FIELDS = { file: 'file', meta: 'meta' } as const;
+
+/** Bytes read and discarded after a failure before the connection is dropped instead. */
+export const DRAIN_LIMIT_BYTES = 64 * 1024 * 1024;
+
+/**
+ * Receives the multipart body of `request` into `filesFolder` (which must exist and be empty).
+ * @throws ApiError 400 (content type, missing or unexpected parts, bad paths, duplicates),
+ *   413 (a size or count limit, naming it).
+ */
+export async function receiveUpload(
+  request: Request,
+  filesFolder: string,
+  limits: IngestLimits
+): Promise<ReceivedUpload> {
+  const contentType = request.headers.get('content-type') ?? '';
+  if (!/^multipart\/form-data\s*;.*boundary=/i.test(contentType)) {
+    throw new ApiError(
+      400,
+      'upload.content_type',
+      `content-type: expected multipart/form-data with a boundary, got "${contentType || 'none'}". ` +
+        'Send the files as "file" parts and the build details as a "meta" part of a multipart form.'
+    );
+  }
+  if (!request.body) throw missingPart(UPLOAD_FIELDS.meta);
+
+  const receiver = new UploadReceiver(filesFolder, limits);
+  await receiver.receive(Readable.fromWeb(request.body as import('node:stream/web').ReadableStream), contentType);
+
+  if (receiver.metaText === null) throw missingPart(UPLOAD_FIELDS.meta);
+  if (receiver.files.length === 0) throw missingPart(UPLOAD_FIELDS.file);
+  return { files: receiver.files, metaText: receiver.metaText };
+}
+
+function missingPart(field: string): ApiError {
+  const what =
+    field === UPLOAD_FIELDS.meta
+      ? 'the "meta" part (build details as JSON) is missing'
+      : 'no "file" part was sent: a build needs at least one .glb or .gltf file';
+  return new ApiError(400, `upload.${field}_missing`, `${field}: ${what}.`);
+}
+
+/** One upload in progress: the parser, the files written so far and the first failure. */
+class UploadReceiver {
+  readonly files: ReceivedFile[] = [];
+  metaText: string | null = null;
+  private buildBytes = 0;
+  private failure: unknown = null;
+  private readonly writes: Promise<void>[] = [];
+  private readonly paths = new Set<string>();
+  /** File streams still flowing; a failure ends them so their writes settle. */
+  private readonly openStreams = new Set<Readable>();
+
+  constructor(
+    private readonly filesFolder: string,
+    private readonly limits: IngestLimits
+  ) {}
+
+  /** Parses the body to its end; rejects with the first failure once the body is consumed. */
+  async receive(body: Readable, contentType: string): Promise<void> {
+    const parser = busboy({
+      headers: { 'content-type': contentType },
+      preservePath: true,
+      defParamCharset: 'utf8',
+      limits: {
+        // One more than allowed, so the extra part arrives and is refused with a clear message.
+        files: this.limits.maxFiles + 1,
+        fields: 10,
+        fieldSize: this.limits.maxMetaBytes + 1,
+        fieldNameSize: 100,
+        headerPairs: 100
+      }
+    });
+
+    const parsed = new Promise<void>((resolve) => {
+      parser.on('file', (name, stream, info) => this.onFile(name, stream, info.filename));
+      parser.on('field', (name, value, info) => this.onField(name, value, info.valueTruncated));
+      parser.on('fieldsLimit', () =>
+        this.fail(new ApiError(400, 'upload.too_many_fields', 'The upload has more than 10 form fields besides files.'))
+      );
+      parser.on('error', (error) =>
+        this.fail(
+          new ApiError(400, 'upload.malformed', `The multipart body could not be parsed: ${error}`, { cause: error })
+        )
+      );
+      parser.on('close', resolve);
+      body.on('error', (error) => {
+        this.fail(
+          new ApiError(400, 'upload.aborted', 'The upload ended before the whole body arrived.', { cause: error })
+        );
+        resolve();
+      });
+    });
+
+    body.pipe(parser);
+    // A failure stops the parser; `drained` settles when the rest of the body is gone.
+    const drained = new Promise<void>((resolve) => {
+      this.onFailure = () => {
+        body.unpipe(parser);
+        parser.removeAllListeners('file');
+        parser.removeAllListeners('field');
+        drain(body).then(resolve, resolve);
+      };
+    });
+
+    await Promise.race([parsed, drained]);
+    await Promise.allSettled(this.writes);
+    if (this.failure) {
+      await drained;
+      throw this.failure;
+    }
+  }
+
+  private onFailure: () => void = () => {};
+
+  private fail(error: unknown): void {
+    if (this.failure) return;
+    this.failure = error;
+    for (const stream of this.openStreams) stream.destroy();
+    this.onFailure();
+  }
+
+  private onField(name: string, value: string, isTruncated: boolean): void {
+    if (this.failure) return;
+    if (name !== UPLOAD_FIELDS.meta) {
+      this.fail(unexpectedField(name));
+      return;
+    }
+    if (isTruncated || Buffer.byteLength(value) > this.limits.maxMetaBytes) {
+      this.fail(metaTooLarge(this.limits));
+      return;
+    }
+    this.setMeta(value);
+  }
+
+  private setMeta(value: string): void {
+    if (this.metaText !== null) {
+      this.fail(new ApiError(400, 'upload.meta_duplicate', 'meta: the "meta" part was sent more than once.'));
+      return;
+    }
+    this.metaText = value;
+  }
+
+  private onFile(name: string, stream: Readable, filename: string | undefined): void {
+    if (this.failure) {
+      stream.resume();
+      return;
+    }
+    this.openStreams.add(stream);
+    stream.once('close', () => this.openStreams.delete(stream));
+    if (name === UPLOAD_FIELDS.meta) {
+      this.writes.push(this.collectMeta(stream).catch((error: unknown) => this.fail(error)));
+      return;
+    }
+    if (name !== UPLOAD_FIELDS.file) {
+      stream.resume();
+      this.fail(unexpectedField(name));
+      return;
+    }
+    try {
+      const filePath = validateUploadPath(filename ?? '');
+      if (this.paths.has(filePath)) {
+        throw new ApiError(
+          400,
+          'upload.duplicate_path',
+          `file "${filePath}": sent more than once. Send each path once.`
+        );
+      }
+      if (this.paths.size >= this.limits.maxFiles) {
+        throw new ApiError(
+          413,
+          'limit.files',
+          `file "${filePath}": the build has more than ${this.limits.maxFiles} files (ORIENTRY_MAX_FILES). ` +
+            'Send fewer files per build or raise the limit on the server.'
+        );
+      }
+      this.paths.add(filePath);
+      this.writes.push(this.writeFile(filePath, stream).catch((error: unknown) => this.fail(error)));
+    } catch (error) {
+      stream.resume();
+      this.fail(error);
+    }
+  }
+
+  private async collectMeta(stream: Readable): Promise<void> {
+    const chunks: Buffer[] = [];
+    let byteLength = 0;
+    for await (const chunk of stream as AsyncIterable<Buffer>) {
+      byteLength += chunk.length;
+      if (byteLength > this.limits.maxMetaBytes) {
+        this.fail(metaTooLarge(this.limits));
+        stream.resume();
+        return;
+      }
+      chunks.push(chunk);
+    }
+    if (!this.failure) this.setMeta(Buffer.concat(chunks).toString('utf8'));
+  }
+
+  private async writeFile(filePath: string, stream: Readable): Promise<void> {
+    const diskPath = path.join(this.filesFolder, ...filePath.split('/'));
+    try {
+      await fs.promises.mkdir(path.dirname(diskPath), { recursive: true });
+    } catch (error) {
+      stream.resume();
+      throw pathConflict(filePath, error);
+    }
+    // The upload may have failed while the folder was made; the stream is then already ended.
+    if (this.failure || stream.destroyed) return;
+    const meter = new UploadMeter(filePath, this.limits, (byteLength) => {
+      this.buildBytes += byteLength;
+      return this.buildBytes;
+    });
+    try {
+      // `wx`: a path that already exists (a folder of the same name) is a conflict, never overwritten.
+      await pipeline(stream, meter, fs.createWriteStream(diskPath, { flags: 'wx' }));
+    } catch (error) {
+      if (error instanceof ApiError) throw error;
+      const code = (error as NodeJS.ErrnoException).code;
+      if (code === 'EEXIST' || code === 'EISDIR' || code === 'ENOTDIR') throw pathConflict(filePath, error);
+      throw error;
+    }
+    this.files.push({ path: filePath, diskPath, byteLength: meter.byteLength, sha256: meter.digest() });
+  }
+}
+
+/** Counts and hashes a file's bytes as they pass, failing the stream when a limit is crossed. */
+class UploadMeter extends Transform {
+  byteLength = 0;
+  private readonly hash = crypto.createHash('sha256');
+
+  constructor(
+    private readonly filePath: string,
+    private readonly limits: IngestLimits,
+    private readonly addToBuild: (byteLength: number) => number
+  ) {
+    super();
+  }
+
+  _transform(chunk: Buffer, _encoding: BufferEncoding, callback: TransformCallback): void {
+    this.byteLength += chunk.length;
+    if (this.byteLength > this.limits.maxFileBytes) {
+      callback(
+        new ApiError(
+          413,
+          'limit.file_bytes',
+          `file "${this.filePath}": larger than ${this.limits.maxFileBytes} bytes (ORIENTRY_MAX_FILE_BYTES). ` +
+            'Split the asset or raise the limit on the server.'
+        )
+      );
+      return;
+    }
+    const buildBytes = this.addToBuild(chunk.length);
+    if (buildBytes > this.limits.maxBuildBytes) {
+      callback(
+        new ApiError(
+          413,
+          'limit.build_bytes',
+          `file "${this.filePath}": the build's files add up to more than ${this.limits.maxBuildBytes} bytes ` +
+            '(ORIENTRY_MAX_BUILD_BYTES). Send fewer or smaller files or raise the limit on the server.'
+        )
+      );
+      return;
+    }
+    this.hash.update(chunk);
+    callback(null, chunk);
+  }
+
+  digest(): string {
+    return this.hash.digest('hex');
+  }
+}
+
+function unexpectedField(name: string): ApiError {
+  return new ApiError(
+    400,
+    'upload.unexpected_field',
+    `${name}: unexpected form field. Send files as "${UPLOAD_FIELDS.file}" parts and build details as one "${UPLOAD_FIELDS.meta}" part.`
+  );
+}
+
+function metaTooLarge(limits: IngestLimits): ApiError {
+  return new ApiError(
+    413,
+    'limit.meta_bytes',
+    `meta: larger than ${limits.maxMetaBytes} bytes (ORIENTRY_MAX_META_BYTES). Send only the build details in meta.`
+  );
+}
+
+function pathConflict(filePath: string, cause: unknown): ApiError {
+  return new ApiError(
+    400,
+    'upload.path_conflict',
+    `file "${filePath}": the path clashes with another file of the build (a file and a folder of the same name).`,
+    { cause }
+  );
+}
+
+/** Reads and discards the rest of a body, dropping the connection past {@link DRAIN_LIMIT_BYTES}. */
+async function drain(body: Readable): Promise<void> {
+  let byteLength = 0;
+  try {
+    for await (const chunk of body as AsyncIterable<Buffer>) {
+      byteLength += chunk.length;
+      if (byteLength > DRAIN_LIMIT_BYTES) {
+        body.destroy();
+        return;
+      }
+    }
+  } catch (error) {
+    // The client went away while the rest was discarded; the failure already recorded is the answer.
+    if (process.env.DEBUG) console.debug('upload drain ended early', error);
+  }
+}
