@@ -97,6 +97,14 @@ function parseGlb(bytes: Uint8Array, view: DataView, path: string): ParsedContai
 }
 
 function parseJsonText(bytes: Uint8Array, path: string, start: number, end: number): unknown {
+  // Judge by the first byte before decoding, so binary garbage is "not glTF", not "bad UTF-8".
+  if (bytes[firstContentByte(bytes, start, end)] !== 0x7b) {
+    throw new AssetReadError(
+      'asset.not-gltf',
+      `${path}: not a glTF asset: no GLB header and the content does not start with a JSON object.`,
+      'Upload .glb or .gltf files only; check the file was not replaced by another format.'
+    );
+  }
   let text: string;
   try {
     text = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false }).decode(bytes.subarray(start, end));
@@ -104,16 +112,8 @@ function parseJsonText(bytes: Uint8Array, path: string, start: number, end: numb
     throw new AssetReadError(
       'asset.json-invalid',
       `${path}: the glTF JSON is not valid UTF-8.`,
-      'Save the file as UTF-8 (glTF 2.0 §3.1 requires it).',
+      'Save the file as UTF-8 without a byte order mark, as glTF 2.0 requires.',
       { cause: error }
-    );
-  }
-  const firstCharacter = text.trimStart().charAt(0);
-  if (firstCharacter !== '{') {
-    throw new AssetReadError(
-      'asset.not-gltf',
-      `${path}: not a glTF asset: no GLB header and the text does not start with a JSON object.`,
-      'Upload .glb or .gltf files only; check the file was not replaced by another format.'
     );
   }
   try {
@@ -126,4 +126,17 @@ function parseJsonText(bytes: Uint8Array, path: string, start: number, end: numb
       { cause: error }
     );
   }
+}
+
+/** Index of the first byte after a UTF-8 byte order mark and JSON whitespace (RFC 8259 §2). */
+function firstContentByte(bytes: Uint8Array, start: number, end: number): number {
+  let index = start;
+  if (bytes[index] === 0xef && bytes[index + 1] === 0xbb && bytes[index + 2] === 0xbf) index += 3;
+  while (
+    index < end &&
+    (bytes[index] === 0x20 || bytes[index] === 0x09 || bytes[index] === 0x0a || bytes[index] === 0x0d)
+  ) {
+    index++;
+  }
+  return index;
 }
