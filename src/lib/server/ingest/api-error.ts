@@ -28,7 +28,7 @@ export class ApiError extends AppError {
 
 /**
  * A JSON error answer `{ error: { code, message } }` with the given status.
- * @example return apiError(404, 'project.not_found', 'No project "tidewatch". Check the project slug.');
+ * @example return apiError(404, 'project.not-found', 'No project "tidewatch". Check the project slug.');
  */
 export function apiError(status: number, code: string, message: string, headers?: HeadersInit): Response {
   const body: ApiErrorBody = { error: { code, message } };

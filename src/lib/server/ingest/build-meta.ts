@@ -51,7 +51,7 @@ export function parseBuildMeta(json: string): BuildMeta {
   try {
     value = JSON.parse(json);
   } catch (error) {
-    throw new ApiError(400, 'upload.meta_invalid', `meta: not valid JSON (${(error as Error).message}). ${HINT}`, {
+    throw new ApiError(400, 'upload.meta-invalid', `meta: not valid JSON (${(error as Error).message}). ${HINT}`, {
       cause: error
     });
   }
@@ -60,7 +60,7 @@ export function parseBuildMeta(json: string): BuildMeta {
   const text = result.error.issues
     .map((issue) => `${['meta', ...issue.path.map(String)].join('.')}: ${issue.message}`)
     .join('; ');
-  throw new ApiError(400, 'upload.meta_invalid', `${text}. ${HINT}`, { cause: result.error });
+  throw new ApiError(400, 'upload.meta-invalid', `${text}. ${HINT}`, { cause: result.error });
 }
 
 const HINT = 'Send meta as a JSON object such as {"branch": "main", "commit": "3f2a9c1", "label": "#1482"}.';

@@ -74,20 +74,20 @@ describe('receiveUpload', () => {
       headers: { 'content-type': 'application/json' }
     });
     const failure = await failureOf(receiveUpload(request, folder, INGEST_LIMIT_DEFAULTS));
-    expect([failure.status, failure.code]).toEqual([400, 'upload.content_type']);
+    expect([failure.status, failure.code]).toEqual([400, 'upload.content-type']);
     expect(failure.message).toContain('application/json');
   });
 
   it.each([
-    { parts: [['file', file('x'), 'a.glb']], code: 'upload.meta_missing', field: 'meta' },
-    { parts: [['meta', META]], code: 'upload.file_missing', field: 'file' },
+    { parts: [['file', file('x'), 'a.glb']], code: 'upload.meta-missing', field: 'meta' },
+    { parts: [['meta', META]], code: 'upload.file-missing', field: 'file' },
     {
       parts: [
         ['meta', META],
         ['file', file('x'), 'a.glb'],
         ['extra', 'y']
       ],
-      code: 'upload.unexpected_field',
+      code: 'upload.unexpected-field',
       field: 'extra'
     },
     {
@@ -95,7 +95,7 @@ describe('receiveUpload', () => {
         ['meta', META],
         ['files', file('x'), 'a.glb']
       ],
-      code: 'upload.unexpected_field',
+      code: 'upload.unexpected-field',
       field: 'files'
     },
     {
@@ -104,7 +104,7 @@ describe('receiveUpload', () => {
         ['meta', META],
         ['file', file('x'), 'a.glb']
       ],
-      code: 'upload.meta_duplicate',
+      code: 'upload.meta-duplicate',
       field: 'meta'
     },
     {
@@ -113,7 +113,7 @@ describe('receiveUpload', () => {
         ['file', file('x'), 'a.glb'],
         ['file', file('y'), 'a.glb']
       ],
-      code: 'upload.duplicate_path',
+      code: 'upload.duplicate-path',
       field: 'a.glb'
     },
     {
@@ -122,7 +122,7 @@ describe('receiveUpload', () => {
         ['file', file('x'), 'chars'],
         ['file', file('y'), 'chars/a.glb']
       ],
-      code: 'upload.path_conflict',
+      code: 'upload.path-conflict',
       // Either of the two clashing files may be named, whichever reached the disk second.
       field: 'chars'
     },
@@ -131,7 +131,7 @@ describe('receiveUpload', () => {
         ['meta', META],
         ['file', file('x'), '../escape.glb']
       ],
-      code: 'upload.path_invalid',
+      code: 'upload.path-invalid',
       field: '../escape.glb'
     },
     {
@@ -139,7 +139,7 @@ describe('receiveUpload', () => {
         ['meta', META],
         ['file', file('x'), '/abs.glb']
       ],
-      code: 'upload.path_invalid',
+      code: 'upload.path-invalid',
       field: '/abs.glb'
     }
   ] as { parts: [string, string | Blob, string?][]; code: string; field: string }[])(
@@ -161,7 +161,7 @@ describe('receiveUpload', () => {
         ['meta', META],
         ['file', file('x'.repeat(1001)), 'big.glb']
       ],
-      code: 'limit.file_bytes',
+      code: 'limit.file-bytes',
       names: ['big.glb', 'ORIENTRY_MAX_FILE_BYTES', '1000']
     },
     {
@@ -173,7 +173,7 @@ describe('receiveUpload', () => {
     {
       what: 'files adding up past the build limit',
       parts: [['meta', META], ...['a', 'b', 'c'].map((n) => ['file', file('x'.repeat(900)), `${n}.glb`])],
-      code: 'limit.build_bytes',
+      code: 'limit.build-bytes',
       names: ['c.glb', 'ORIENTRY_MAX_BUILD_BYTES', '2500']
     },
     {
@@ -182,7 +182,7 @@ describe('receiveUpload', () => {
         ['meta', JSON.stringify({ branch: 'x'.repeat(300) })],
         ['file', file('x'), 'a.glb']
       ],
-      code: 'limit.meta_bytes',
+      code: 'limit.meta-bytes',
       names: ['meta', 'ORIENTRY_MAX_META_BYTES', '200']
     },
     {
@@ -191,7 +191,7 @@ describe('receiveUpload', () => {
         ['meta', new Blob(['{' + ' '.repeat(300) + '}']), 'meta.json'],
         ['file', file('x'), 'a.glb']
       ],
-      code: 'limit.meta_bytes',
+      code: 'limit.meta-bytes',
       names: ['ORIENTRY_MAX_META_BYTES']
     }
   ] as { what: string; parts: [string, string | Blob, string?][]; code: string; names: string[] }[])(

@@ -57,7 +57,7 @@ export async function receiveUpload(
   if (!/^multipart\/form-data\s*;.*boundary=/i.test(contentType)) {
     throw new ApiError(
       400,
-      'upload.content_type',
+      'upload.content-type',
       `content-type: expected multipart/form-data with a boundary, got "${contentType || 'none'}". ` +
         'Send the files as "file" parts and the build details as a "meta" part of a multipart form.'
     );
@@ -77,7 +77,7 @@ function missingPart(field: string): ApiError {
     field === UPLOAD_FIELDS.meta
       ? 'the "meta" part (build details as JSON) is missing'
       : 'no "file" part was sent: a build needs at least one .glb or .gltf file';
-  return new ApiError(400, `upload.${field}_missing`, `${field}: ${what}.`);
+  return new ApiError(400, `upload.${field}-missing`, `${field}: ${what}.`);
 }
 
 /** One upload in progress: the parser, the files written so far and the first failure. */
@@ -116,7 +116,7 @@ class UploadReceiver {
       parser.on('file', (name, stream, info) => this.onFile(name, stream, info.filename));
       parser.on('field', (name, value, info) => this.onField(name, value, info.valueTruncated));
       parser.on('fieldsLimit', () =>
-        this.fail(new ApiError(400, 'upload.too_many_fields', 'The upload has more than 10 form fields besides files.'))
+        this.fail(new ApiError(400, 'upload.too-many-fields', 'The upload has more than 10 form fields besides files.'))
       );
       parser.on('error', (error) =>
         this.fail(
@@ -175,7 +175,7 @@ class UploadReceiver {
 
   private setMeta(value: string): void {
     if (this.metaText !== null) {
-      this.fail(new ApiError(400, 'upload.meta_duplicate', 'meta: the "meta" part was sent more than once.'));
+      this.fail(new ApiError(400, 'upload.meta-duplicate', 'meta: the "meta" part was sent more than once.'));
       return;
     }
     this.metaText = value;
@@ -202,7 +202,7 @@ class UploadReceiver {
       if (this.paths.has(filePath)) {
         throw new ApiError(
           400,
-          'upload.duplicate_path',
+          'upload.duplicate-path',
           `file "${filePath}": sent more than once. Send each path once.`
         );
       }
@@ -283,7 +283,7 @@ class UploadMeter extends Transform {
       callback(
         new ApiError(
           413,
-          'limit.file_bytes',
+          'limit.file-bytes',
           `file "${this.filePath}": larger than ${this.limits.maxFileBytes} bytes (ORIENTRY_MAX_FILE_BYTES). ` +
             'Split the asset or raise the limit on the server.'
         )
@@ -295,7 +295,7 @@ class UploadMeter extends Transform {
       callback(
         new ApiError(
           413,
-          'limit.build_bytes',
+          'limit.build-bytes',
           `file "${this.filePath}": the build's files add up to more than ${this.limits.maxBuildBytes} bytes ` +
             '(ORIENTRY_MAX_BUILD_BYTES). Send fewer or smaller files or raise the limit on the server.'
         )
@@ -314,7 +314,7 @@ class UploadMeter extends Transform {
 function unexpectedField(name: string): ApiError {
   return new ApiError(
     400,
-    'upload.unexpected_field',
+    'upload.unexpected-field',
     `${name}: unexpected form field. Send files as "${UPLOAD_FIELDS.file}" parts and build details as one "${UPLOAD_FIELDS.meta}" part.`
   );
 }
@@ -322,7 +322,7 @@ function unexpectedField(name: string): ApiError {
 function metaTooLarge(limits: IngestLimits): ApiError {
   return new ApiError(
     413,
-    'limit.meta_bytes',
+    'limit.meta-bytes',
     `meta: larger than ${limits.maxMetaBytes} bytes (ORIENTRY_MAX_META_BYTES). Send only the build details in meta.`
   );
 }
@@ -330,7 +330,7 @@ function metaTooLarge(limits: IngestLimits): ApiError {
 function pathConflict(filePath: string, cause: unknown): ApiError {
   return new ApiError(
     400,
-    'upload.path_conflict',
+    'upload.path-conflict',
     `file "${filePath}": the path clashes with another file of the build (a file and a folder of the same name).`,
     { cause }
   );

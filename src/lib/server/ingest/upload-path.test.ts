@@ -33,7 +33,7 @@ describe('validateUploadPath', () => {
     expect(thrown).toBeInstanceOf(ApiError);
     const apiError = thrown as ApiError;
     expect(apiError.status).toBe(400);
-    expect(apiError.code).toBe('upload.path_invalid');
+    expect(apiError.code).toBe('upload.path-invalid');
     expect(apiError.message).toContain(reason);
     expect(apiError.message).not.toContain('\u0000');
     expect(apiError.message).not.toContain('\n');

@@ -22,7 +22,7 @@ export function validateUploadPath(path: string): string {
   if (problem) {
     throw new ApiError(
       400,
-      'upload.path_invalid',
+      'upload.path-invalid',
       `file "${printable(path)}": ${problem}. Send each file under a relative path inside the build folder, e.g. "chars/hero.gltf".`
     );
   }
