@@ -3,7 +3,7 @@
  * picomatch syntax on forward-slash paths relative to the build root; `dot: true` so an export
  * folder such as `.export/` is matched like any other.
  */
-import picomatch from 'picomatch/posix';
+import picomatch from 'picomatch/posix.js';
 import type { Policy } from './policy';
 
 const matchers = new Map<string, (path: string) => boolean>();

@@ -10,6 +10,10 @@
  * - CUBICSPLINE, normalized integers, or other component types: one copy into fresh Float32Arrays.
  *   The CUBICSPLINE split writes values and both tangents into one allocation of 12 floats per key,
  *   then hands out three subarray views of it: one allocation instead of three, same bytes.
+ *   A fused single pass (read each key once, write all three regions) was tried; it measured about
+ *   15% slower than three passes that each write one region in order (50 channels × 10,000 keys,
+ *   min 12.7 ms vs 10.9 ms), so the split stays three passes. Most of the remaining cost is the
+ *   first touch of the fresh 24 MB, not the loop.
  * Nothing allocates per key. Rules must treat the arrays as read-only: they may be the Document's.
  */
 import type { Accessor, Document } from '@gltf-transform/core';
