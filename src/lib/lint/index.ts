@@ -53,3 +53,5 @@ export {
 export { ENGINE_VERSION } from './version';
 export { RULES } from './rules/index';
 export type { Rule, ChannelRule, AssetRule, RuleContext, FindingDraft } from './rules/rule';
+export * from './report/index';
+export * from './fix/index';
