@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Model, type ModelStatic } from 'sequelize';
 import { listAppliedMigrations, migrate, MIGRATION_TABLE } from '$lib/server/db/migrate';
 import { MIGRATIONS } from '$lib/server/db/migrations';
 import { models } from '$lib/server/db/models';
@@ -16,7 +16,7 @@ afterAll(async () => {
   await temp.remove();
 });
 
-async function rows<T>(sql: string): Promise<T[]> {
+async function rows<T extends object>(sql: string): Promise<T[]> {
   return temp.database.sequelize.query<T>(sql, { type: QueryTypes.SELECT });
 }
 
@@ -102,7 +102,7 @@ describe('database migrations', () => {
   });
 
   it('has a column for every model attribute', async () => {
-    for (const model of Object.values(models)) {
+    for (const model of Object.values(models) as ModelStatic<Model>[]) {
       const columns = await rows<{ name: string }>(`PRAGMA table_info(${model.getTableName() as string})`);
       const names = columns.map((column) => column.name);
       expect(names, model.name).toEqual(expect.arrayContaining(Object.keys(model.getAttributes())));

@@ -31,7 +31,8 @@ export class Asset extends Model<InferAttributes<Asset>, InferCreationAttributes
 
   /** Binds the model to a Sequelize instance (columns mirror migration 0001). */
   static initModel(sequelize: Sequelize): typeof Asset {
-    const count = { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, validate: { min: 0 } };
+    // A fresh object per column: Sequelize writes the column name into the definition it is given.
+    const count = () => ({ type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, validate: { min: 0 } });
     Asset.init(
       {
         id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
@@ -42,9 +43,9 @@ export class Asset extends Model<InferAttributes<Asset>, InferCreationAttributes
         policyVersion: { type: DataTypes.STRING(32), allowNull: false },
         unreadable: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         statsJson: { type: DataTypes.TEXT, allowNull: true },
-        errorCount: count,
-        warningCount: count,
-        infoCount: count,
+        errorCount: count(),
+        warningCount: count(),
+        infoCount: count(),
         worstRule: { type: DataTypes.STRING(64), allowNull: true }
       },
       { sequelize, tableName: 'assets', timestamps: false }

@@ -47,7 +47,8 @@ export class Build extends Model<InferAttributes<Build>, InferCreationAttributes
 
   /** Binds the model to a Sequelize instance (columns mirror migration 0001). */
   static initModel(sequelize: Sequelize): typeof Build {
-    const count = { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, validate: { min: 0 } };
+    // A fresh object per column: Sequelize writes the column name into the definition it is given.
+    const count = () => ({ type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, validate: { min: 0 } });
     Build.init(
       {
         id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
@@ -62,14 +63,14 @@ export class Build extends Model<InferAttributes<Build>, InferCreationAttributes
         baselineBuildId: { type: DataTypes.INTEGER, allowNull: true },
         policyVersion: { type: DataTypes.STRING(32), allowNull: false },
         engineVersion: { type: DataTypes.STRING(32), allowNull: false },
-        errorCount: count,
-        warningCount: count,
-        infoCount: count,
-        newCount: count,
-        unchangedCount: count,
-        fixedCount: count,
-        waivedCount: count,
-        assetCount: count,
+        errorCount: count(),
+        warningCount: count(),
+        infoCount: count(),
+        newCount: count(),
+        unchangedCount: count(),
+        fixedCount: count(),
+        waivedCount: count(),
+        assetCount: count(),
         durationMs: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE
       },
