@@ -38,10 +38,7 @@ export interface ServerConfig {
 const envSchema = z.object({
   DATABASE_URL: z.string().optional(),
   DATA_DIR: z.string().optional(),
-  AUTH_SECRET: z
-    .string()
-    .min(32, 'must be at least 32 characters (for example from "openssl rand -hex 32")')
-    .optional(),
+  AUTH_SECRET: z.string().min(32, 'must be at least 32 random characters, e.g. from `openssl rand -hex 32`').optional(),
   ORIGIN: z.url({ protocol: /^https?$/, error: 'must be an http(s) URL such as https://orientry.example' }).optional(),
   NODE_ENV: z.string().optional(),
   SIGNIN_MAX_FAILURES: z.coerce.number().int().min(1).max(1000).default(5),
