@@ -1,0 +1,47 @@
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { building, dev } from '$app/environment';
+import { authHandle } from '$lib/server/auth/auth-js';
+import { credentialsCallbackGuard } from '$lib/server/auth/credentials-callback-guard';
+import { signInRequiredHandle } from '$lib/server/auth/sign-in-required-handle';
+import { userHandle } from '$lib/server/auth/user-handle';
+import { ConfigError } from '$lib/server/errors';
+import { prepareServer } from '$lib/server/startup';
+
+/**
+ * Runs once before the server takes requests: checks configuration and the data folder,
+ * opens the database and applies pending migrations. A setup problem prints one line saying
+ * what to fix and stops the process (the development server keeps running and shows it).
+ */
+export const init: ServerInit = async () => {
+  if (building) return;
+  try {
+    const applied = await prepareServer();
+    if (applied.length > 0) console.log(`Orientry: applied database migrations ${applied.join(', ')}`);
+  } catch (error) {
+    if (error instanceof ConfigError && !dev) {
+      console.error(error.message);
+      // Top-level start-up handler: the message already says what to fix, a stack trace would bury it.
+      process.exit(1);
+    }
+    throw error;
+  }
+};
+
+/** Rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall. */
+export const handle: Handle = sequence(credentialsCallbackGuard, authHandle, userHandle, signInRequiredHandle);
+
+/**
+ * Unexpected errors: logged with an id and the stack, answered with a generic line that
+ * carries the same id. Expected failures never get here (routes throw `error(status, …)`).
+ */
+export const handleError: HandleServerError = ({ error, event, status }) => {
+  if (status === 404) return { message: 'Not found.', code: 'not-found' };
+  const errorId = crypto.randomUUID().slice(0, 8);
+  console.error(`Orientry error ${errorId} on ${event.request.method} ${event.url.pathname}:`, error);
+  return {
+    message: `Something went wrong on our side (error ${errorId}). Try again; if it keeps happening, tell an admin the error id.`,
+    code: 'internal',
+    errorId
+  };
+};
