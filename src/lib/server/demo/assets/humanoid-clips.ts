@@ -22,6 +22,10 @@ export interface HumanoidClipOptions {
   swimStyle?: 'breaststroke' | 'crawl';
 }
 
+/** Sway amplitude and rate: 2 Hz loops in every clip length used here (2 s and 3 s). */
+const SWAY_DEGREES = 1.2;
+const SWAY_HZ = 2;
+
 type MotionTable = Partial<Record<HumanoidJoint, AngleCurve[]>>;
 
 // prettier-ignore
@@ -96,12 +100,12 @@ const TREAD: MotionTable = {
 /** Adds Idle, Swim and Wave (LINEAR, 30 fps) and Tread (CUBICSPLINE, 4 keys per second) to a rig. */
 export function addHumanoidClips(document: Document, rig: HumanoidRig, options: HumanoidClipOptions = {}): void {
   const scale = options.amplitudeScale ?? 1;
-  const tracksOf = (table: MotionTable) =>
-    Object.entries(table).map(([joint, curves]) =>
-      rotationTrack(
-        rig.joints[joint as HumanoidJoint],
-        curves.map((curve) => ({ ...curve, amplitudeDegrees: (curve.amplitudeDegrees ?? 0) * scale }))
-      )
+  const tracksOf = (table: MotionTable, hasSway: boolean) =>
+    Object.entries(table).map(([joint, curves], trackIndex) =>
+      rotationTrack(rig.joints[joint as HumanoidJoint], [
+        ...curves.map((curve) => ({ ...curve, amplitudeDegrees: (curve.amplitudeDegrees ?? 0) * scale })),
+        ...(hasSway ? waterSway(trackIndex) : [])
+      ])
     );
   const swim = options.swimStyle === 'crawl' ? SWIM_CRAWL : SWIM_BREASTSTROKE;
   const fps = CHARACTER_FRAMES_PER_SECOND;
@@ -110,27 +114,40 @@ export function addHumanoidClips(document: Document, rig: HumanoidRig, options: 
     durationSeconds: 3,
     interpolation: 'LINEAR',
     keysPerSecond: fps,
-    tracks: tracksOf(IDLE)
+    tracks: tracksOf(IDLE, true)
   });
   addSampledClip(document, {
     name: 'Swim',
     durationSeconds: 2,
     interpolation: 'LINEAR',
     keysPerSecond: fps,
-    tracks: tracksOf(swim)
+    tracks: tracksOf(swim, true)
   });
   addSampledClip(document, {
     name: 'Wave',
     durationSeconds: 2,
     interpolation: 'LINEAR',
     keysPerSecond: fps,
-    tracks: tracksOf(WAVE)
+    tracks: tracksOf(WAVE, true)
   });
   addSampledClip(document, {
     name: 'Tread',
     durationSeconds: 2,
     interpolation: 'CUBICSPLINE',
     keysPerSecond: 4,
-    tracks: tracksOf(TREAD)
+    tracks: tracksOf(TREAD, false)
   });
+}
+
+/**
+ * A small circular sway (the current rocking the body) added to every LINEAR track. Its
+ * angular acceleration never vanishes, so no 30 fps key is reproduced by its neighbours within
+ * 0.01° and the bakes carry no accidental redundant keys; only the injected ones are reported.
+ */
+function waterSway(trackIndex: number): AngleCurve[] {
+  const phaseTurns = trackIndex * 0.13;
+  return [
+    { axis: 'x', amplitudeDegrees: SWAY_DEGREES, frequencyHz: SWAY_HZ, phaseTurns },
+    { axis: 'z', amplitudeDegrees: SWAY_DEGREES, frequencyHz: SWAY_HZ, phaseTurns: phaseTurns + 0.25 }
+  ];
 }
