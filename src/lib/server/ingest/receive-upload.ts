@@ -125,9 +125,7 @@ class UploadReceiver {
       );
       parser.on('close', resolve);
       body.on('error', (error) => {
-        this.fail(
-          new ApiError(400, 'upload.aborted', 'The upload ended before the whole body arrived.', { cause: error })
-        );
+        this.fail(bodyFailure(error));
         resolve();
       });
     });
@@ -334,6 +332,22 @@ function pathConflict(filePath: string, cause: unknown): ApiError {
     `file "${filePath}": the path clashes with another file of the build (a file and a folder of the same name).`,
     { cause }
   );
+}
+
+/** The answer for a body stream that failed: the server's own size cap (413), or a broken upload. */
+function bodyFailure(error: unknown): ApiError {
+  if ((error as { status?: number }).status === 413) {
+    return new ApiError(
+      413,
+      'limit.body-bytes',
+      `The request body is larger than the server accepts (${(error as Error).message}). ` +
+        'Ask the operator to raise BODY_SIZE_LIMIT, or send fewer or smaller files.',
+      { cause: error }
+    );
+  }
+  return new ApiError(400, 'upload.aborted', 'The upload ended before the whole body arrived. Send it again.', {
+    cause: error
+  });
 }
 
 /** Reads and discards the rest of a body, dropping the connection past {@link DRAIN_LIMIT_BYTES}. */

@@ -25,7 +25,11 @@ export function uploadsRootOf(dataDir: string): string {
 export async function withUploadFolder<T>(dataDir: string, work: (folder: string) => Promise<T>): Promise<T> {
   const root = uploadsRootOf(dataDir);
   await fs.promises.mkdir(root, { recursive: true });
-  sweeping ??= sweepStaleUploads(root);
+  // Best effort: a failed sweep only leaves old folders on disk, so it is logged and uploads go on.
+  sweeping ??= sweepStaleUploads(root).catch((error: unknown) => {
+    console.warn(`Orientry: could not sweep old upload folders in ${root}:`, error);
+    return [];
+  });
   await sweeping;
   const folder = path.join(root, `${process.pid}-${crypto.randomBytes(8).toString('hex')}`);
   await fs.promises.mkdir(folder);
@@ -36,7 +40,7 @@ export async function withUploadFolder<T>(dataDir: string, work: (folder: string
   }
 }
 
-let sweeping: Promise<void> | undefined;
+let sweeping: Promise<string[]> | undefined;
 
 /**
  * Removes upload folders whose process is gone or that are older than a day. Returns the

@@ -1,0 +1,31 @@
+/**
+ * GET a build's lint report as a download: `report.json` (Orientry's JSON report),
+ * `report.sarif` (SARIF 2.1.0) or `report.junit` (JUnit XML), for signed-in project members.
+ */
+import { exportBuildReport, isReportFormat, REPORT_FORMATS } from '$lib/server/builds/export-build-report';
+import { getProjectBuild } from '$lib/server/builds/get-project-build';
+import { ApiError } from '$lib/server/ingest/api-error';
+import { apiHandler } from '$lib/server/ingest/api-handler';
+import { requireApiMember } from '$lib/server/ingest/require-api-member';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = apiHandler(async (event) => {
+  const { format } = event.params;
+  if (!isReportFormat(format)) {
+    throw new ApiError(
+      404,
+      'report.format-unknown',
+      `There is no "${format}" report. Use report.${Object.keys(REPORT_FORMATS).join(', report.')}.`
+    );
+  }
+  const { project } = await requireApiMember(event, event.params.project, 'viewer');
+  const build = await getProjectBuild(project.id, event.params.id);
+  const file = await exportBuildReport(build, project.slug, format);
+  return new Response(file.body, {
+    headers: {
+      'content-type': file.contentType,
+      'content-disposition': `attachment; filename="${file.fileName}"`,
+      'cache-control': 'private, no-store'
+    }
+  });
+});
