@@ -116,6 +116,27 @@ describe('readRotationChannels: CUBICSPLINE', () => {
 });
 
 describe('readRotationChannels: layout and identity', () => {
+  it('decodes an output shared by many channels once, so aliasing cannot multiply memory', () => {
+    const document = buildAnimatedDocument([
+      { nodeName: 'Mast', interpolation: 'CUBICSPLINE', times: [0, 1], output: new Float32Array(6 * 4).fill(0.5) }
+    ]);
+    const animation = document.getRoot().listAnimations()[0];
+    const sampler = animation.listSamplers()[0];
+    for (let copy = 0; copy < 3; copy++) {
+      const node = document.createNode(`Shroud${copy}`);
+      animation.addChannel(
+        document.createAnimationChannel().setTargetNode(node).setTargetPath('rotation').setSampler(sampler)
+      );
+    }
+    const channels = readRotationChannels(document);
+    expect(channels).toHaveLength(4);
+    for (const channel of channels) {
+      expect(channel.values.buffer).toBe(channels[0].values.buffer);
+      expect(channel.outTangents!.buffer).toBe(channels[0].values.buffer);
+      expect(channel.keyCount).toBe(2);
+    }
+  });
+
   it('hands out the Document’s own float32 arrays for LINEAR keys instead of copying them', () => {
     const document = buildAnimatedDocument([
       { nodeName: 'Buoy', interpolation: 'LINEAR', times: [0, 1], output: new Float32Array([0, 0, 0, 1, 0, 1, 0, 0]) }
