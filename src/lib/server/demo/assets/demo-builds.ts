@@ -7,7 +7,7 @@
 import { RULE_IDS, type RuleId } from '$lib/lint/rule-ids';
 import { toDemoFiles, type DemoFile } from './asset-files';
 import { DEMO_ASSETS } from './demo-asset-catalog';
-import { DEMO_AUTHORS, DEMO_PROJECTS, DEMO_STUDIO, type DemoProjectSlug } from './demo-projects';
+import { DEMO_CI_HOST, DEMO_PROJECT_STORIES, getDemoAuthor, type DemoProjectSlug } from './demo-projects';
 import { DEMO_TIMELINE, type TimelineEntry } from './demo-timeline';
 import type { DefectName } from './defects';
 import { createSeededRandom, randomHex, seedFromText } from './seeded-random';
@@ -44,7 +44,7 @@ export interface DemoBuildPlan {
    * build). Clean dense bakes may add `redundant-keys` info findings of their own.
    */
   expectedRules: RuleId[];
-  /** Whether the build has error findings under its project's demo policy (`policy` in {@link DEMO_PROJECTS}). */
+  /** Whether the build has error findings under its project's demo policy ({@link getDemoPolicy}). */
   expectsErrors: boolean;
   /** Generates the build's files: 3 to 8 small files; the same bytes on every call. */
   assets(): Promise<DemoFile[]>;
@@ -75,10 +75,10 @@ export function listDemoBuilds(baseDate: Date = new Date()): DemoBuildPlan[] {
 }
 
 function toPlan(entry: TimelineEntry, index: number, pipeline: number, windowStartMs: number): DemoBuildPlan {
-  const project = DEMO_PROJECTS.find((candidate) => candidate.slug === entry.project);
+  const project = DEMO_PROJECT_STORIES.find((candidate) => candidate.slug === entry.project);
   if (!project) throw new Error(`Demo timeline entry ${index} names unknown project "${entry.project}".`);
-  const branch = entry.branch === 'main' ? project.defaultBranch : project.featureBranch;
-  const author = DEMO_AUTHORS[entry.author];
+  const branch = entry.branch === 'main' ? 'main' : project.featureBranch;
+  const author = getDemoAuthor(entry.author);
   const contents = entry.assets.map((item) => ({
     path: DEMO_ASSETS[item.key].path,
     title: DEMO_ASSETS[item.key].title,
@@ -91,7 +91,7 @@ function toPlan(entry: TimelineEntry, index: number, pipeline: number, windowSta
     branch,
     commitSha: randomHex(createSeededRandom(seedFromText(`${entry.project}:${branch}:${index}`)), 40),
     label: `#${pipeline}`,
-    ciJobUrl: `${DEMO_STUDIO.ciHost}/tidewatch/${entry.project}/pipelines/${pipeline}`,
+    ciJobUrl: `${DEMO_CI_HOST}/tidewatch/${entry.project}/pipelines/${pipeline}`,
     createdAt: new Date(windowStartMs + entry.day * DAY_MS + Math.round(entry.hour * 3_600_000)).toISOString(),
     author: author.name,
     authorEmail: author.email,
