@@ -274,7 +274,7 @@ function parseRaw(command: CommandName, args: string[]): RawArgs {
     const { values, positionals } = parseArgs({ args, options, allowPositionals: true, strict: true });
     return { values: values as RawArgs['values'], positionals };
   } catch (error) {
-    throw usage('args.invalid', `orientry ${command}: ${describeParseError(error)} (see orientry ${command} --help)`, {
+    throw usage('args.invalid', `${describeParseError(error)} (see orientry ${command} --help)`, {
       cause: error
     });
   }
@@ -299,7 +299,7 @@ function validate<T>(command: CommandName, schema: z.ZodType<T>, raw: RawArgs): 
   if (result.success) return result.data;
   const issue = result.error.issues[0];
   const where = issue.path[0] === 'values' ? `--${String(issue.path[1])}: ` : '';
-  throw usage('args.invalid', `orientry ${command}: ${where}${issue.message} (see orientry ${command} --help)`, {
+  throw usage('args.invalid', `${where}${issue.message} (see orientry ${command} --help)`, {
     cause: result.error
   });
 }
