@@ -22,6 +22,6 @@ describe('CHART_COLORS', () => {
 
   it('derives the line fill from the line colour', () => {
     const [r, g, b] = [1, 3, 5].map((offset) => parseInt(CHART_COLORS.line.slice(offset, offset + 2), 16));
-    expect(CHART_COLORS.lineFill).toBe(`rgba(${r}, ${g}, ${b}, 0.10)`);
+    expect(CHART_COLORS.lineFill).toBe(`rgba(${r}, ${g}, ${b}, 0.07)`);
   });
 });

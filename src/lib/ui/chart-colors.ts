@@ -6,7 +6,7 @@ export const CHART_COLORS = {
   /** Main series line: ink-600. */
   line: '#4D5866',
   /** Area under a series: ink-600 at low alpha. */
-  lineFill: 'rgba(77, 88, 102, 0.10)',
+  lineFill: 'rgba(77, 88, 102, 0.07)',
   /** Gridlines and baselines: ink-100. */
   grid: '#EBEEF1',
   /** Axis tick labels: ink-500. */
