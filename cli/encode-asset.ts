@@ -4,7 +4,8 @@
  * here: the caller checks the paths first (never over the input) and then writes them.
  */
 import { basename, dirname, extname, join } from 'node:path';
-import { ImageUtils, NodeIO, type Document } from '@gltf-transform/core';
+import { ImageUtils, Logger, NodeIO, type Document } from '@gltf-transform/core';
+import { ALL_EXTENSIONS } from '@gltf-transform/extensions';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 
@@ -43,7 +44,9 @@ export async function encodeAsset(document: Document, outputPath: string): Promi
     );
   }
   const removedExtensions = removeCompression(document);
-  const io = new NodeIO();
+  // The writer drops every extension it was not given, so give it all it knows (materials,
+  // texture transforms, quantized attributes...). WARN keeps its info lines off stdout.
+  const io = new NodeIO().setLogger(new Logger(Logger.Verbosity.WARN)).registerExtensions(ALL_EXTENSIONS);
   if (extension === '.glb') {
     mergeBuffers(document);
     return { files: [{ path: outputPath, bytes: await io.writeBinary(document) }], removedExtensions };

@@ -5,7 +5,21 @@
  */
 import { mkdir, realpath, rename, rm, writeFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
-import { lintAsset, readAssetDocument, countBySeverity, type AssetReport, type Policy, type RuleId } from '$lib/lint';
+import type { Document } from '@gltf-transform/core';
+import {
+  countBySeverity,
+  isAssetReadError,
+  lintAsset,
+  lintDocument,
+  readAsset,
+  type AssetReport,
+  type AssetSource,
+  type Finding,
+  type Policy,
+  type ReadAssetResult,
+  type ReadOptions,
+  type RuleId
+} from '$lib/lint';
 import { FIXES, fixDocument, isFixable, type FixResult } from '$lib/lint/fix';
 import type { FixOptions } from '../args';
 import { CliError } from '../cli-error';
@@ -26,21 +40,16 @@ export async function fix(options: FixOptions, context: CommandContext): Promise
 
   const readPaths = new Set<string>();
   const source = await readInput(input, readPaths);
-  const readOptions = { ...(await getReadOptions(source.bytes)), includeImages: true };
-  const before = await lintAsset(source, policy, readOptions);
-  const unreadable = before.findings.find((finding) => finding.rule === 'asset-unreadable');
-  if (before.unreadable || unreadable) {
-    throw new CliError('input.unreadable', unreadable?.message ?? `${input.displayPath}: cannot be read`);
-  }
-
-  const document = await readAssetDocument(source, readOptions);
+  // One read serves both the "before" lint and the fix; images are read too, as the copy needs them.
+  const document = await readDocument(source, { ...(await getReadOptions(source.bytes)), includeImages: true });
+  const before = lintDocument(document, source.path, policy).findings;
   const { results } = await fixDocument(document, policy, rules ?? undefined);
   const encoded = await encodeAsset(document, outputPath);
   if (!options.isInPlace) await refuseOverwritingInput(encoded.files, readPaths);
   for (const file of encoded.files) await writeAtomically(file);
 
   const outputDisplayPath = options.outputPath ?? options.inputPath;
-  const after = await lintOutput({ absolutePath: outputPath, displayPath: outputDisplayPath }, policy);
+  const after = (await lintOutput({ absolutePath: outputPath, displayPath: outputDisplayPath }, policy)).findings;
   const lines = [
     `orientry: fixed ${input.displayPath} -> ${outputDisplayPath}`,
     `  applied: ${describeApplied(results)}`,
@@ -138,6 +147,20 @@ async function writeAtomically(file: EncodedFile): Promise<void> {
   }
 }
 
+/** Reads the input Document; a file the library cannot read is an input error here (exit code 2). */
+async function readDocument(source: AssetSource, options: ReadOptions): Promise<Document> {
+  let read: ReadAssetResult;
+  try {
+    read = await readAsset(source, options);
+  } catch (error) {
+    if (!isAssetReadError(error)) throw error;
+    throw new CliError('input.unreadable', `${error.message} ${error.hint}`, ExitCode.UsageError, { cause: error });
+  }
+  // The decoder is passed whenever the file names Draco; a skip here would drop geometry from the copy.
+  if (read.skippedDracoPrimitives > 0) throw new Error(`${source.path}: Draco geometry was skipped while reading`);
+  return read.document;
+}
+
 async function lintOutput(file: InputFile, policy: Policy): Promise<AssetReport> {
   const source = await readAssetSource(file);
   return lintAsset(source, policy, await getReadOptions(source.bytes));
@@ -158,8 +181,8 @@ function describeApplied(results: readonly FixResult[]): string {
     .join(', ');
 }
 
-function formatCounts(report: AssetReport): string {
-  const counts = countBySeverity(report.findings);
+function formatCounts(findings: readonly Finding[]): string {
+  const counts = countBySeverity(findings);
   return `${plural(counts.error, 'error')}, ${plural(counts.warning, 'warning')}, ${counts.info} info`;
 }
 

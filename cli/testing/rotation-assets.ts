@@ -7,6 +7,7 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { dirname, join } from 'node:path';
 import { Document, NodeIO, type Node } from '@gltf-transform/core';
+import { ALL_EXTENSIONS } from '@gltf-transform/extensions';
 import { quat } from 'gl-matrix';
 
 export type Quaternion = [number, number, number, number];
@@ -93,7 +94,7 @@ function outputValues(spec: ChannelSpec): number[] {
 
 /** Writes `document` as a .glb at `path`. */
 export async function writeGlb(document: Document, path: string): Promise<Uint8Array> {
-  const bytes = await new NodeIO().writeBinary(document);
+  const bytes = await new NodeIO().registerExtensions(ALL_EXTENSIONS).writeBinary(document);
   await mkdir(dirname(path), { recursive: true });
   await writeFile(path, bytes);
   return bytes;
@@ -102,7 +103,7 @@ export async function writeGlb(document: Document, path: string): Promise<Uint8A
 /** Writes `document` as a .gltf at `path` with its buffer in `<binName>` and its images beside it. */
 export async function writeGltf(document: Document, path: string, binName: string): Promise<void> {
   for (const buffer of document.getRoot().listBuffers()) buffer.setURI(binName);
-  const { json, resources } = await new NodeIO().writeJSON(document);
+  const { json, resources } = await new NodeIO().registerExtensions(ALL_EXTENSIONS).writeJSON(document);
   await mkdir(dirname(path), { recursive: true });
   await writeFile(path, JSON.stringify(json));
   for (const [uri, bytes] of Object.entries(resources)) {

@@ -2,10 +2,11 @@ import { createHash } from 'node:crypto';
 import { copyFile, mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { NodeIO } from '@gltf-transform/core';
-import { KHRDracoMeshCompression } from '@gltf-transform/extensions';
-import { draco } from '@gltf-transform/functions';
+import { NodeIO, type Document } from '@gltf-transform/core';
+import { ALL_EXTENSIONS, KHRMaterialsUnlit } from '@gltf-transform/extensions';
+import { draco, meshopt } from '@gltf-transform/functions';
 import draco3d from 'draco3dgltf';
+import { MeshoptEncoder } from 'meshoptimizer';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   CLEAN_CHANNEL,
@@ -46,7 +47,9 @@ beforeAll(async () => {
   buildCli();
   work = await mkdtemp(join(tmpdir(), 'orientry-cli-fix-'));
   const broken = () => createRotationDocument([FLIPPED_CUBIC_CHANNEL, DRIFTING_CHANNEL]);
-  await writeGlb(broken(), join(work, 'keeper.glb'));
+  const glb = await writeGlb(broken(), join(work, 'keeper.glb'));
+  // The GLB header still declares the full length (glTF 2.0 §4.4.2), so the cut is detectable.
+  await writeFile(join(work, 'truncated.glb'), glb.subarray(0, glb.byteLength - 40));
   await writeGltf(broken(), join(work, 'split/keeper.gltf'), 'keeper-data.bin');
   await writeGltf(broken(), join(work, 'collide/rig.gltf'), 'lantern.bin');
 
@@ -54,10 +57,12 @@ beforeAll(async () => {
   const textured = broken();
   const external = textured.createTexture('Sail').setImage(new Uint8Array(PNG_SIGNATURE)).setMimeType('image/png');
   const embedded = textured.createTexture('Glow').setImage(new Uint8Array(PNG_SIGNATURE)).setMimeType('image/png');
+  const unlit = textured.createExtension(KHRMaterialsUnlit).createUnlit();
   textured
     .createMaterial('Canvas')
     .setBaseColorTexture(external.setURI('textures/sail.png'))
-    .setEmissiveTexture(embedded);
+    .setEmissiveTexture(embedded)
+    .setExtension('KHR_materials_unlit', unlit);
   await writeGltf(textured, join(work, 'textured/rig.gltf'), 'rig.bin');
   const texturedJson = JSON.parse(await readFile(join(work, 'textured/rig.gltf'), 'utf8')) as {
     images: { uri: string }[];
@@ -65,29 +70,54 @@ beforeAll(async () => {
   texturedJson.images[1].uri = `data:image/png;base64,${Buffer.from(PNG_SIGNATURE).toString('base64')}`;
   await writeFile(join(work, 'textured/rig.gltf'), JSON.stringify(texturedJson));
 
-  // A Draco-compressed triangle pair beside the broken clip: the fix must decode, not drop, it.
-  const dracoDocument = broken();
-  const buffer = dracoDocument.getRoot().listBuffers()[0];
-  const positions = dracoDocument
+  // A Draco-compressed and a meshopt-compressed triangle pair beside the broken clip: the fix must
+  // decode, not drop, the geometry.
+  const dracoDocument = withSailMesh(broken());
+  await dracoDocument.transform(draco());
+  await new NodeIO()
+    .registerExtensions(ALL_EXTENSIONS)
+    .registerDependencies({ 'draco3d.encoder': await draco3d.createEncoderModule() })
+    .write(join(work, 'sail.glb'), dracoDocument);
+  await MeshoptEncoder.ready;
+  const meshoptDocument = withSailMesh(broken());
+  await meshoptDocument.transform(meshopt({ encoder: MeshoptEncoder }));
+  await new NodeIO()
+    .registerExtensions(ALL_EXTENSIONS)
+    .registerDependencies({ 'meshopt.encoder': MeshoptEncoder })
+    .write(join(work, 'sail-meshopt.glb'), meshoptDocument);
+});
+
+/** Adds a two-triangle mesh (4 vertices, 6 indices) to the scene root. */
+function withSailMesh(document: Document): Document {
+  const buffer = document.getRoot().listBuffers()[0];
+  const positions = document
     .createAccessor()
     .setType('VEC3')
     .setArray(new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0, 1, 1, 0]))
     .setBuffer(buffer);
-  const indices = dracoDocument
+  const indices = document
     .createAccessor()
     .setType('SCALAR')
     .setArray(new Uint16Array([0, 1, 2, 2, 1, 3]))
     .setBuffer(buffer);
-  const mesh = dracoDocument
-    .createMesh('Sail')
-    .addPrimitive(dracoDocument.createPrimitive().setAttribute('POSITION', positions).setIndices(indices));
-  dracoDocument.getRoot().listNodes()[0].setMesh(mesh);
-  await dracoDocument.transform(draco());
-  const dracoIo = new NodeIO()
-    .registerExtensions([KHRDracoMeshCompression])
-    .registerDependencies({ 'draco3d.encoder': await draco3d.createEncoderModule() });
-  await dracoIo.write(join(work, 'sail.glb'), dracoDocument);
-});
+  const primitive = document.createPrimitive().setAttribute('POSITION', positions).setIndices(indices);
+  document.getRoot().listNodes()[0].setMesh(document.createMesh('Sail').addPrimitive(primitive));
+  return document;
+}
+
+/** The extensions a written GLB declares, and its first primitive's vertex and index counts. */
+async function readGlbFacts(path: string) {
+  const bytes = await readFile(path);
+  const jsonByteLength = bytes.readUInt32LE(12);
+  const json = JSON.parse(bytes.subarray(20, 20 + jsonByteLength).toString('utf8')) as { extensionsUsed?: string[] };
+  const document = await new NodeIO().registerExtensions(ALL_EXTENSIONS).read(path);
+  const primitive = document.getRoot().listMeshes()[0].listPrimitives()[0];
+  return {
+    extensionsUsed: json.extensionsUsed ?? [],
+    vertexCount: primitive.getAttribute('POSITION')?.getCount(),
+    indexCount: primitive.getIndices()?.getCount()
+  };
+}
 
 afterAll(async () => {
   await rm(work, { recursive: true, force: true });
@@ -145,7 +175,9 @@ describe('orientry fix', () => {
     expect(run.status).toBe(0);
     const json = JSON.parse(await readFile(join(work, 'textured-out/rig.gltf'), 'utf8')) as {
       images: { uri: string }[];
+      extensionsUsed: string[];
     };
+    expect(json.extensionsUsed).toEqual(['KHR_materials_unlit']);
     // The external image keeps its relative URI; the embedded one is written beside the copy, named after it.
     expect(json.images.map((image) => image.uri)).toEqual(['textures/sail.png', 'rig_image1.png']);
     expect(await readFile(join(work, 'textured-out/textures/sail.png'))).toEqual(Buffer.from(PNG_SIGNATURE));
@@ -189,7 +221,7 @@ describe('orientry fix', () => {
     for (const rule of FIXED_RULES) expect(after).not.toContain(rule);
   });
 
-  it('exits 2 for a rule that has no fix, an unsupported output type and an unreadable input', () => {
+  it('exits 2 for a rule that has no fix, an unsupported output type, a missing input and a damaged one', () => {
     const unfixable = runCli(['fix', 'keeper.glb', '-o', 'x.glb', '--rules', 'gimbal-proximity'], work);
     expect(unfixable.status).toBe(2);
     expect(unfixable.stderr).toContain('gimbal-proximity');
@@ -199,18 +231,37 @@ describe('orientry fix', () => {
     const missing = runCli(['fix', 'ghost.glb', '-o', 'x.glb'], work);
     expect(missing.status).toBe(2);
     expect(missing.stderr).toContain('ghost.glb');
+    const truncated = runCli(['fix', 'truncated.glb', '-o', 'x.glb'], work);
+    expect(truncated.status).toBe(2);
+    expect(truncated.stderr).toContain('truncated.glb');
+    expect(truncated.stderr).not.toContain('internal error');
   });
 
   it('decodes Draco geometry and writes it uncompressed, so no vertex is lost', async () => {
     const run = runCli(['fix', 'sail.glb', '-o', 'sail.fixed.glb'], work);
     expect(run.status).toBe(0);
     expect(run.stderr).toContain('KHR_draco_mesh_compression removed');
-    const fixed = await new NodeIO().read(join(work, 'sail.fixed.glb'));
-    const primitive = fixed.getRoot().listMeshes()[0].listPrimitives()[0];
-    // The four vertices and six indices written above.
-    expect(primitive.getAttribute('POSITION')?.getCount()).toBe(4);
-    expect(primitive.getIndices()?.getCount()).toBe(6);
+    // The four vertices and six indices written by withSailMesh.
+    expect(await readGlbFacts(join(work, 'sail.fixed.glb'))).toEqual({
+      extensionsUsed: [],
+      vertexCount: 4,
+      indexCount: 6
+    });
     const after = rulesFound('sail.fixed.glb');
+    for (const rule of FIXED_RULES) expect(after).not.toContain(rule);
+  });
+
+  it('decodes meshopt geometry and keeps the quantized attributes it decodes to', async () => {
+    const run = runCli(['fix', 'sail-meshopt.glb', '-o', 'sail-meshopt.fixed.glb'], work);
+    expect(run.status).toBe(0);
+    expect(run.stderr).toContain('EXT_meshopt_compression removed');
+    // meshopt() quantizes positions first, so the copy must still declare KHR_mesh_quantization.
+    expect(await readGlbFacts(join(work, 'sail-meshopt.fixed.glb'))).toEqual({
+      extensionsUsed: ['KHR_mesh_quantization'],
+      vertexCount: 4,
+      indexCount: 6
+    });
+    const after = rulesFound('sail-meshopt.fixed.glb');
     for (const rule of FIXED_RULES) expect(after).not.toContain(rule);
   });
 
