@@ -4,6 +4,7 @@
  * all the others byte for byte. The scenario is the Tidewatch demo project. Test support only.
  */
 import { Document, type Animation, type Node, type TypedArray } from '@gltf-transform/core';
+import { mat4, quat, type vec3 } from 'gl-matrix';
 import type { Interpolation } from '../read/rotation-channel';
 
 export type TargetPath = 'rotation' | 'translation' | 'scale';
@@ -109,7 +110,7 @@ export function readGlbAccessorBytes(glb: Uint8Array): Map<string, Uint8Array> {
 }
 
 /** Float32 quaternions for a rotation by `angleDegrees` about a unit axis, one per angle. */
-export function axisAngleKeys(axis: [number, number, number], anglesDegrees: number[]): Float32Array {
+export function axisAngleKeys(axis: [number, number, number], anglesDegrees: number[]): Float32Array<ArrayBuffer> {
   const keys = new Float32Array(anglesDegrees.length * 4);
   anglesDegrees.forEach((angle, keyIndex) => {
     const half = (angle * Math.PI) / 360;
@@ -119,4 +120,62 @@ export function axisAngleKeys(axis: [number, number, number], anglesDegrees: num
     );
   });
   return keys;
+}
+
+/**
+ * World matrices of every named node, every mesh (by mesh name, through the node holding it) and
+ * every joint matrix (`<skin>#<joint>`: world × inverse bind, glTF 2.0 §3.7.3), computed with
+ * gl-matrix as an independent oracle (world = parent world × T·R·S, §3.5.2-3).
+ * With `keyIndex`, every animated TRS property takes its key `keyIndex` first (float outputs only;
+ * the fixtures give each animation's channels the same key times, and a key time's value is used
+ * as-is, glTF 2.0 Appendix C).
+ */
+export function worldMatricesAt(document: Document, keyIndex: number | null = null): Map<string, mat4> {
+  const pose = new Map<Node, { translation?: number[]; rotation?: number[]; scale?: number[] }>();
+  if (keyIndex !== null)
+    for (const animation of document.getRoot().listAnimations())
+      for (const channel of animation.listChannels()) {
+        const node = channel.getTargetNode();
+        const sampler = channel.getSampler();
+        const path = channel.getTargetPath() as TargetPath;
+        if (!node || !sampler || !['rotation', 'translation', 'scale'].includes(path)) continue;
+        const output = sampler.getOutput()!;
+        const size = output.getElementSize();
+        const element = sampler.getInterpolation() === 'CUBICSPLINE' ? keyIndex * 3 + 1 : keyIndex;
+        const value = [...output.getArray()!.subarray(element * size, element * size + size)];
+        pose.set(node, { ...pose.get(node), [path]: value });
+      }
+  const worlds = new Map<Node, mat4>();
+  const visit = (node: Node, parentWorld: mat4) => {
+    const override = pose.get(node) ?? {};
+    const rotation = override.rotation ?? node.getRotation();
+    const local = mat4.fromRotationTranslationScale(
+      mat4.create(),
+      quat.normalize(quat.create(), rotation as unknown as quat),
+      (override.translation ?? node.getTranslation()) as unknown as vec3,
+      (override.scale ?? node.getScale()) as unknown as vec3
+    );
+    const world = mat4.multiply(mat4.create(), parentWorld, local);
+    worlds.set(node, world);
+    for (const child of node.listChildren()) visit(child, world);
+  };
+  for (const scene of document.getRoot().listScenes())
+    for (const node of scene.listChildren()) visit(node, mat4.create());
+
+  const result = new Map<string, mat4>();
+  for (const [node, world] of worlds) {
+    result.set(`node:${node.getName()}`, world);
+    const mesh = node.getMesh();
+    if (mesh) result.set(`mesh:${mesh.getName()}`, world);
+  }
+  for (const skin of document.getRoot().listSkins()) {
+    const inverseBind = skin.getInverseBindMatrices()?.getArray() ?? null;
+    skin.listJoints().forEach((joint, jointIndex) => {
+      const bind = inverseBind
+        ? (inverseBind.subarray(jointIndex * 16, jointIndex * 16 + 16) as unknown as mat4)
+        : mat4.create();
+      result.set(`joint:${skin.getName()}#${jointIndex}`, mat4.multiply(mat4.create(), worlds.get(joint)!, bind));
+    });
+  }
+  return result;
 }
