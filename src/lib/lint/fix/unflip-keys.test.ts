@@ -54,7 +54,7 @@ describe('unflipKeys', () => {
         for (let k = 0; k + 1 < keys.length; k++) expect(dot(curve.values, k, k + 1)).toBeGreaterThanOrEqual(0);
         keys.forEach((key, k) => {
           // Same pose: each key is exactly q or −q, the same rotation (q·v·q* = (−q)·v·(−q)*).
-          const after = [...curve.values.subarray(k * 4, k * 4 + 4)];
+          const after = [...curve.values.subarray(k * 4, k * 4 + 4)].map((component) => component + 0);
           const sign = Math.sign(after[0] * key[0] + after[1] * key[1] + after[2] * key[2] + after[3] * key[3]) || 1;
           expect(after).toEqual(key.map((component) => sign * component + 0));
         });
