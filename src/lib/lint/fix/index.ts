@@ -62,8 +62,9 @@ export interface FixDocumentResult {
 }
 
 /**
- * Applies the fixes for `rules` (default: every fixable rule the policy does not turn off) with the
- * policy's tolerances, in a fixed order:
+ * Applies the fixes for `rules` with the policy's tolerances. Without `rules`, every fixable rule
+ * that would report under the policy is fixed (not turned off; baked-basis only when the policy
+ * requires glTF basis); rules named explicitly are fixed regardless. The order is fixed:
  * 1. renormalize: the later steps compare and multiply keys, and unit keys keep that exact;
  * 2. removeBakedBasis: turns keys by whole quarter turns, which keeps their dot products, so it can
  *    neither create nor remove a hemisphere jump;
