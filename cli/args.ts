@@ -5,8 +5,7 @@
  */
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
-import { SEVERITIES, type Severity } from '$lib/lint/finding';
-import { RULE_IDS, type RuleId } from '$lib/lint/rule-ids';
+import { RULE_IDS, SEVERITIES, type RuleId, type Severity } from '$lib/lint';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 

@@ -6,8 +6,7 @@
 import { readFile, realpath, stat } from 'node:fs/promises';
 import { dirname, isAbsolute, relative, resolve, sep } from 'node:path';
 import { glob, isDynamicPattern } from 'tinyglobby';
-import type { AssetSource } from '$lib/lint/asset-source';
-import { AssetReadError } from '$lib/lint/asset-read-error';
+import { AssetReadError, type AssetSource } from '$lib/lint';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 

@@ -3,7 +3,7 @@
  * to an exit code. Expected failures (CliError, PolicyError) print one line on stderr; anything
  * else is a bug and prints "orientry: internal error: ...", with the stack under --debug.
  */
-import { ENGINE_VERSION } from '$lib/lint/version';
+import { ENGINE_VERSION } from '$lib/lint';
 import { version as packageVersion } from '../package.json';
 import { COMMAND_NAMES, COMMANDS, parseCommandLine, type Invocation } from './args';
 import type { CommandContext } from './command-context';

@@ -12,9 +12,12 @@ import {
   lintAsset,
   type AssetReport,
   type LintReport,
+  toJsonReport,
+  toJunitXml,
+  toSarif,
+  toTextSummary,
   type Policy
 } from '$lib/lint';
-import { toJsonReport, toJunitXml, toSarif, toTextSummary } from '$lib/lint/report';
 import type { CheckOptions, ReportFormat } from '../args';
 import { CliError } from '../cli-error';
 import type { CommandContext } from '../command-context';

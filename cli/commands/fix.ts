@@ -8,19 +8,22 @@ import { dirname, resolve } from 'node:path';
 import type { Document } from '@gltf-transform/core';
 import {
   countBySeverity,
+  FIXES,
+  fixDocument,
   isAssetReadError,
+  isFixable,
   lintAsset,
   lintDocument,
   readAsset,
   type AssetReport,
   type AssetSource,
   type Finding,
+  type FixResult,
   type Policy,
   type ReadAssetResult,
   type ReadOptions,
   type RuleId
 } from '$lib/lint';
-import { FIXES, fixDocument, isFixable, type FixResult } from '$lib/lint/fix';
 import type { FixOptions } from '../args';
 import { CliError } from '../cli-error';
 import type { CommandContext } from '../command-context';
