@@ -179,3 +179,25 @@ export function worldMatricesAt(document: Document, keyIndex: number | null = nu
   }
   return result;
 }
+
+/**
+ * The largest absolute difference between matching entries of two {@link worldMatricesAt} results,
+ * and where it is. Entries in `before` that `after` lacks count as Infinity; nodes named in `except`
+ * (roots a fix reset on purpose) are skipped.
+ */
+export function largestWorldDifference(
+  before: Map<string, mat4>,
+  after: Map<string, mat4>,
+  except: readonly string[] = []
+): { name: string; difference: number } {
+  let largest = { name: '', difference: 0 };
+  for (const [name, matrix] of before) {
+    if (except.some((node) => name === `node:${node}`)) continue;
+    const other = after.get(name);
+    const difference = other
+      ? Math.max(...[...matrix].map((value, index) => Math.abs(value - other[index])))
+      : Infinity;
+    if (!(difference <= largest.difference)) largest = { name, difference };
+  }
+  return largest;
+}
