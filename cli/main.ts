@@ -39,6 +39,12 @@ async function run(invocation: Invocation, context: CommandContext): Promise<Exi
   }
 }
 
+// A reader that closes the pipe early (`orientry check ... | head`) wants no more output; the
+// verdict still travels in the exit code, so dropping the rest of the report is safe.
+process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+  if (error.code !== 'EPIPE') throw error;
+});
+
 const isColorAllowed = process.stdout.isTTY === true && !process.env.NO_COLOR;
 process.exitCode = await main(process.argv.slice(2), {
   cwd: process.cwd(),
