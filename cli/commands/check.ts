@@ -11,6 +11,7 @@ import {
   isAssetIncluded,
   lintAsset,
   type AssetReport,
+  type AssetSource,
   type LintReport,
   toJsonReport,
   toJunitXml,
@@ -28,8 +29,6 @@ import { plural } from '../plural';
 import { loadPolicy } from '../policy-file';
 import { createProgress } from '../progress';
 import { unreadableAssetReport } from '../unreadable-asset-report';
-
-const EXCLUDED = (path: string) => ({ path, bytes: new Uint8Array(0), readSideFile: async () => null });
 
 /** Runs `orientry check` and returns the exit code. */
 export async function check(options: CheckOptions, context: CommandContext): Promise<ExitCode> {
@@ -69,14 +68,19 @@ export async function check(options: CheckOptions, context: CommandContext): Pro
 /** Lints one file; a main file that cannot even be read becomes an `asset-unreadable` finding. */
 async function lintFile(file: InputFile, policy: Policy): Promise<AssetReport> {
   // The library reports an excluded asset as skipped without looking at its bytes; don't read them.
-  if (!isAssetIncluded(file.displayPath, policy)) return lintAsset(EXCLUDED(file.displayPath), policy);
-  let source;
+  if (!isAssetIncluded(file.displayPath, policy)) return lintAsset(unreadSource(file.displayPath), policy);
+  let source: AssetSource;
   try {
     source = await readAssetSource(file);
   } catch (error) {
     return unreadableAssetReport(file.displayPath, error, policy);
   }
   return lintAsset(source, policy, await getReadOptions(source.bytes));
+}
+
+/** A source with no bytes, for an asset the policy excludes (lintAsset skips it unread). */
+function unreadSource(path: string): AssetSource {
+  return { path, bytes: new Uint8Array(0), readSideFile: async () => null };
 }
 
 /** Renders the report in the chosen format. */

@@ -36,6 +36,7 @@ beforeAll(async () => {
   await writeFile(join(work, 'mixed/truncated.glb'), glb.subarray(0, glb.byteLength - 40));
   await writeFile(join(work, 'broken-policy.json'), '{ "wideArcDegrees": ');
   await writeFile(join(work, 'invalid-policy.json'), JSON.stringify({ tolerances: { unitWarning: 'tight' } }));
+  await writeFile(join(work, 'exclude-policy.json'), JSON.stringify({ exclude: ['flipped/**'] }));
   await writeFile(join(work, 'lenient-policy.json'), JSON.stringify({ rules: { 'hemisphere-jump': 'info' } }));
 });
 
@@ -112,6 +113,14 @@ describe('orientry check', () => {
   it('moves the gate with --fail-on and with a policy that lowers a rule', () => {
     expect(runCli(['check', 'flipped', '--policy', 'lenient-policy.json'], work).status).toBe(0);
     expect(runCli(['check', 'flipped', '--policy', 'lenient-policy.json', '--fail-on', 'info'], work).status).toBe(1);
+  });
+
+  it('skips assets the policy excludes, so they cannot fail the gate', () => {
+    const run = runCli(['check', 'clean', 'flipped', '--policy', 'exclude-policy.json', '--format', 'json'], work);
+    expect(run.status).toBe(0);
+    const report = JSON.parse(run.stdout) as JsonReport & { assets: { skipped: boolean }[] };
+    const flipped = report.assets.find((asset) => asset.path === 'flipped/keeper.glb');
+    expect(flipped).toMatchObject({ skipped: true, findings: [] });
   });
 
   it('exits 2 naming the field for an invalid policy', () => {
