@@ -2,6 +2,7 @@ import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { building, dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/auth-js';
+import { cookieDefaultsHandle } from '$lib/server/auth/cookie-defaults-handle';
 import { credentialsCallbackGuard } from '$lib/server/auth/credentials-callback-guard';
 import { signInRequiredHandle } from '$lib/server/auth/sign-in-required-handle';
 import { userHandle } from '$lib/server/auth/user-handle';
@@ -28,8 +29,14 @@ export const init: ServerInit = async () => {
   }
 };
 
-/** Rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall. */
-export const handle: Handle = sequence(credentialsCallbackGuard, authHandle, userHandle, signInRequiredHandle);
+/** Cookie defaults, rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall. */
+export const handle: Handle = sequence(
+  cookieDefaultsHandle,
+  credentialsCallbackGuard,
+  authHandle,
+  userHandle,
+  signInRequiredHandle
+);
 
 /**
  * Unexpected errors: logged with an id and the stack, answered with a generic line that
