@@ -1,9 +1,10 @@
 import { defineConfig, devices } from '@playwright/test';
 
 /**
- * End-to-end tests run against the production build (`node build`) on a free port with a
- * throw-away database; `tests/e2e/global-setup.ts` picks the port and prepares the data folder.
- * Browsers come from Debian (`/usr/bin/chromium`): nothing is downloaded.
+ * End-to-end tests run against the production build (`node build`) with the demo scenario seeded
+ * into a throw-away data folder: `scripts/e2e-server.js` builds when sources changed, seeds, starts
+ * the server and removes the folder when it stops. Browsers come from Debian (`/usr/bin/chromium`):
+ * nothing is downloaded. E2E_PORT picks the port (default 4173).
  */
 const port = Number(process.env.E2E_PORT ?? 4173);
 const baseURL = `http://127.0.0.1:${port}`;
@@ -12,6 +13,7 @@ export default defineConfig({
   testDir: 'tests/e2e',
   outputDir: 'test-results',
   timeout: 60_000,
+  expect: { timeout: 10_000 },
   workers: 1,
   reporter: [['list']],
   use: {
@@ -32,7 +34,7 @@ export default defineConfig({
     }
   },
   webServer: {
-    command: `node scripts/e2e-server.js`,
+    command: 'node scripts/e2e-server.js',
     url: `${baseURL}/api/health`,
     env: { PORT: String(port), HOST: '127.0.0.1', ORIGIN: baseURL },
     timeout: 240_000,

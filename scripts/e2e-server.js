@@ -1,17 +1,21 @@
 /**
  * Web server for the Playwright tests: builds the app if needed, seeds the demo scenario into a
- * throw-away data folder (removed on exit) and runs `node build` with PORT, HOST and ORIGIN
- * from the environment (playwright.config.ts sets them). Prints nothing secret worth keeping.
+ * throw-away data folder and runs a private copy of build/ with PORT, HOST and ORIGIN from the
+ * environment (playwright.config.ts sets them). Both are removed when the server stops.
  */
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ensureBuild } from './ensure-build.js';
 import { importTs, reportScriptError } from './run-ts.js';
-import { followServer, startServer } from './serve-build.js';
+import { followServer, snapshotBuild, startServer } from './serve-build.js';
 
 const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-e2e-'));
-const removeDataDir = () => fs.rmSync(dataDir, { recursive: true, force: true });
+let buildDir = '';
+const removeDataDir = () => {
+  fs.rmSync(dataDir, { recursive: true, force: true });
+  if (buildDir) fs.rmSync(buildDir, { recursive: true, force: true });
+};
 
 try {
   const port = process.env.PORT ?? '4173';
@@ -21,11 +25,13 @@ try {
   process.env.DATABASE_URL = `sqlite:${path.join(dataDir, 'e2e.db')}`;
 
   ensureBuild();
+  buildDir = snapshotBuild();
   const demo = await importTs('src/lib/server/demo/prepare-demo.ts');
   const seed = await demo.prepareDemo();
   const child = await startServer({
     env: { ...process.env, PORT: port, HOST: host, ORIGIN: process.env.ORIGIN ?? url },
-    url
+    url,
+    buildDir
   });
   followServer(child, removeDataDir);
   await demo.seedHistory(url, seed.tokens);

@@ -50,7 +50,12 @@ export function ensureBuild(options = {}) {
       ? 'Orientry: building the app (npm run build)...'
       : 'Orientry: sources changed, rebuilding (npm run build)...'
   );
-  const result = spawnSync('npm', ['run', 'build'], { cwd: ROOT, stdio: ['ignore', 'inherit', 'inherit'] });
+  // A production build whatever the caller's NODE_ENV: `dev` from $app/environment is fixed at build time.
+  const result = spawnSync('npm', ['run', 'build'], {
+    cwd: ROOT,
+    env: { ...process.env, NODE_ENV: 'production' },
+    stdio: ['ignore', 'inherit', 'inherit']
+  });
   if (result.status !== 0) throw new Error(`npm run build failed (exit code ${result.status ?? result.signal}).`);
   return true;
 }

@@ -3,16 +3,37 @@
  * /api/health answers, for the demo and the end-to-end tests.
  */
 import { spawn } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
 import { ROOT } from './run-ts.js';
 
 /**
- * Spawns `node build` with `env` and resolves once GET `${url}/api/health` returns 200.
+ * Copies build/ to a private folder inside node_modules/.cache/orientry/ (so the copy still finds
+ * node_modules) and returns its path. A server run from the copy keeps working when build/ is
+ * rebuilt underneath it, which happens when tests and a rebuild run side by side.
+ * @returns {string}
+ */
+export function snapshotBuild() {
+  const target = path.join(ROOT, 'node_modules', '.cache', 'orientry', `build-${process.pid}`);
+  fs.rmSync(target, { recursive: true, force: true });
+  fs.cpSync(path.join(ROOT, 'build'), target, { recursive: true });
+  // Inside node_modules the repository's package.json no longer applies: mark the files as ES modules.
+  fs.writeFileSync(path.join(target, 'package.json'), '{ "type": "module" }\n');
+  return target;
+}
+
+/**
+ * Spawns `node <buildDir>` with `env` and resolves once GET `${url}/api/health` returns 200.
  * Rejects if the server exits first or does not answer within `timeoutMs`.
- * @param {{ env: NodeJS.ProcessEnv, url: string, timeoutMs?: number }} options
+ * @param {{ env: NodeJS.ProcessEnv, url: string, buildDir?: string, timeoutMs?: number }} options
  * @returns {Promise<import('node:child_process').ChildProcess>}
  */
-export async function startServer({ env, url, timeoutMs = 60_000 }) {
-  const child = spawn(process.execPath, ['build'], { cwd: ROOT, env, stdio: 'inherit' });
+export async function startServer({ env, url, buildDir = path.join(ROOT, 'build'), timeoutMs = 60_000 }) {
+  const child = spawn(process.execPath, [buildDir], {
+    cwd: ROOT,
+    env: { NODE_ENV: 'production', ...env },
+    stdio: 'inherit'
+  });
   let exited = null;
   child.once('exit', (code, signal) => {
     exited = { code, signal };
