@@ -17,7 +17,11 @@ const SOURCES = [
   'postcss.config.js'
 ];
 
-/** Newest modification time (ms) under `target`, skipping tests; 0 when it does not exist. */
+/**
+ * Newest modification time (ms) under `target`, skipping tests; 0 when it does not exist.
+ * @param {string} target
+ * @returns {number}
+ */
 function newestMtime(target) {
   let stat;
   try {
