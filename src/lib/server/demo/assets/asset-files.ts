@@ -18,6 +18,7 @@ export async function toGlb(document: Document): Promise<Uint8Array> {
 /**
  * Writes a document as a `.gltf` at `path` plus one `.bin` beside it, named after the `.gltf`
  * (`chars/kelp-diver.gltf` → `chars/kelp-diver.bin`, referenced by the relative URI `kelp-diver.bin`).
+ * Sets the document's buffer URI to that name, the one change it makes to `document`.
  */
 export async function toGltfFiles(document: Document, path: string): Promise<DemoFile[]> {
   if (!path.endsWith('.gltf')) throw new TypeError(`toGltfFiles: expected a path ending in .gltf, got "${path}".`);
