@@ -68,8 +68,26 @@ export async function readAssetDocument(source: AssetSource, options: ReadOption
   return (await readAsset(source, options)).document;
 }
 
-/** Like {@link readAssetDocument}, also giving the bytes read and what was skipped. */
+/**
+ * Like {@link readAssetDocument}, also giving the bytes read and what was skipped. Anything thrown
+ * while reading is about the file, so it always surfaces as an AssetReadError (unexpected ones as
+ * `asset.decode-failed`, the original kept as `cause`): one odd file never stops a build's lint.
+ */
 export async function readAsset(source: AssetSource, options: ReadOptions = {}): Promise<ReadAssetResult> {
+  try {
+    return await readAssetUnguarded(source, options);
+  } catch (error) {
+    if (isAssetReadError(error)) throw error;
+    throw new AssetReadError(
+      'asset.decode-failed',
+      `${source.path}: the file could not be read: ${(error as Error)?.message ?? String(error)}`,
+      'Export the asset again; if it loads elsewhere, report this file to the Orientry maintainers.',
+      { cause: error }
+    );
+  }
+}
+
+async function readAssetUnguarded(source: AssetSource, options: ReadOptions): Promise<ReadAssetResult> {
   const { json: rawJson, binChunk, isGlb } = parseContainer(source.bytes, source.path);
   const json = checkShape(rawJson, source.path);
 
