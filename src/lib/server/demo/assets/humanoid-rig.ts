@@ -30,6 +30,7 @@ export const HUMANOID_JOINTS = [
   'Foot.R'
 ] as const;
 
+/** One joint name of the rig. */
 export type HumanoidJoint = (typeof HUMANOID_JOINTS)[number];
 
 /** Options for {@link addHumanoidRig}. */
