@@ -6,6 +6,7 @@ import { cookieDefaultsHandle } from '$lib/server/auth/cookie-defaults-handle';
 import { credentialsCallbackGuard } from '$lib/server/auth/credentials-callback-guard';
 import { signInRequiredHandle } from '$lib/server/auth/sign-in-required-handle';
 import { userHandle } from '$lib/server/auth/user-handle';
+import { closeDatabase } from '$lib/server/db/instance';
 import { ConfigError } from '$lib/server/errors';
 import { prepareServer } from '$lib/server/startup';
 
@@ -19,6 +20,8 @@ export const init: ServerInit = async () => {
   try {
     const applied = await prepareServer();
     if (applied.length > 0) console.log(`Orientry: applied database migrations ${applied.join(', ')}`);
+    // adapter-node emits this on SIGTERM/SIGINT once requests have drained: close SQLite cleanly.
+    process.once('sveltekit:shutdown', () => void closeDatabase().catch((error) => console.error(error)));
   } catch (error) {
     if (error instanceof ConfigError && !dev) {
       console.error(error.message);

@@ -9,8 +9,12 @@ const CALLBACK_PATH = '/auth/callback/credentials';
  */
 export const credentialsCallbackGuard: Handle = async ({ event, resolve }) => {
   if (event.request.method !== 'POST' || event.url.pathname !== CALLBACK_PATH) return resolve(event);
-  const form = await event.request.clone().formData();
-  const email = String(form.get('email') ?? '');
+  // A body that is not a form cannot sign anyone in (Auth.js refuses it), so it counts under an empty e-mail.
+  const form = await event.request
+    .clone()
+    .formData()
+    .catch(() => null);
+  const email = String(form?.get('email') ?? '');
   const limiter = getSignInLimiter();
   const key = signInLimiterKey(email, event.getClientAddress());
   const waitSeconds = limiter.retryAfterSeconds(key);
