@@ -3,14 +3,15 @@
  * Every server module and script asks `getConfig()` instead of reading `process.env`, so a
  * bad value fails at start-up with one line that says what to fix. Variables (all optional):
  *
- * | Variable              | Default                      | Meaning                                                |
- * | --------------------- | ---------------------------- | ------------------------------------------------------ |
- * | DATABASE_URL          | sqlite:<DATA_DIR>/orientry.db | `sqlite:path`, `sqlite://path`, `sqlite::memory:`      |
- * | DATA_DIR              | data                         | Folder for the database, the auth secret and files     |
- * | AUTH_SECRET           | kept in <DATA_DIR>/auth-secret | Session signing secret, at least 32 characters       |
- * | ORIGIN                | (from the request)           | Public URL, e.g. https://orientry.example (adapter-node) |
- * | SIGNIN_MAX_FAILURES   | 5                            | Failed sign-ins allowed per e-mail and address ...      |
- * | SIGNIN_WINDOW_MINUTES | 15                           | ... within this many minutes                           |
+ * | Variable              | Default                        | Meaning                                                  |
+ * | --------------------- | ------------------------------ | -------------------------------------------------------- |
+ * | DATABASE_URL          | sqlite:<DATA_DIR>/orientry.db  | `sqlite:path`, `sqlite://path` or `sqlite::memory:`      |
+ * | DATA_DIR              | data                           | Folder for the database, the session secret and uploads  |
+ * | AUTH_SECRET           | kept in <DATA_DIR>/auth-secret | Session signing secret, at least 32 characters           |
+ * | ORIGIN                | https + the Host header        | Public URL (read by adapter-node too); set it when       |
+ * |                       |                                | serving plain http, or sign-in forms are refused         |
+ * | SIGNIN_MAX_FAILURES   | 5                              | Failed sign-ins allowed per e-mail and client address... |
+ * | SIGNIN_WINDOW_MINUTES | 15                             | ...within this many minutes                              |
  *
  * PORT and HOST are read by adapter-node itself.
  */
@@ -28,7 +29,6 @@ export interface ServerConfig {
   authSecret: string | undefined;
   /** Public origin when set (no trailing slash). */
   origin: string | undefined;
-  isProduction: boolean;
   limits: {
     signInMaxFailures: number;
     signInWindowMinutes: number;
@@ -40,7 +40,6 @@ const envSchema = z.object({
   DATA_DIR: z.string().optional(),
   AUTH_SECRET: z.string().min(32, 'must be at least 32 random characters, e.g. from `openssl rand -hex 32`').optional(),
   ORIGIN: z.url({ protocol: /^https?$/, error: 'must be an http(s) URL such as https://orientry.example' }).optional(),
-  NODE_ENV: z.string().optional(),
   SIGNIN_MAX_FAILURES: z.coerce.number().int().min(1).max(1000).default(5),
   SIGNIN_WINDOW_MINUTES: z.coerce
     .number()
@@ -78,7 +77,6 @@ export function readConfig(env: Record<string, string | undefined> = process.env
     database: { ...parseDatabaseUrl(url, cwd), url },
     authSecret: values.AUTH_SECRET,
     origin: values.ORIGIN?.replace(/\/+$/, ''),
-    isProduction: values.NODE_ENV === 'production',
     limits: {
       signInMaxFailures: values.SIGNIN_MAX_FAILURES,
       signInWindowMinutes: values.SIGNIN_WINDOW_MINUTES
