@@ -16,21 +16,23 @@
  * Folding C into a child can turn that child into a corrected root joint (an armature node above the
  * hips); it is folded in turn, top down, until no root carries a principal turn.
  *
- * Clip corrections. A root rotation channel whose every key is the rest rotation turned by the same
+ * Clip corrections (clip-offsets.ts). A root rotation channel whose every key is the rest rotation turned by the same
  * principal turn D, on the parent side (key = D·rest) or the local side (key = rest·D), was exported
  * with other axis settings than the rig. Its keys become D⁻¹·key (or key·D⁻¹). This one changes what
  * the clip shows on purpose: afterwards it plays in the rig's orientation instead of turned against it.
  */
-import type { AnimationChannel, Document, Node, Skin, Transform } from '@gltf-transform/core';
+import type { Document, Node, Skin, Transform } from '@gltf-transform/core';
 import { findPrincipalTurn, type PrincipalTurn } from '../math/principal-turn';
 import { defaultPolicy } from '../policy';
-import { readNodeTree } from '../read/node-tree';
 import { multiply, permuteScale, rotateVector, toBasisTurn, type BasisTurn, type Quat } from './basis-turn';
-import { applyChannelEdits, type ChannelEdit, type KeyMap } from './channel-edits';
+import { rotationMap, scaleMap, translationMap } from './basis-key-maps';
+import { applyChannelEdits, type ChannelEdit } from './channel-edits';
+import { findClipOffsets } from './clip-offsets';
 import { withoutUndefined } from './defined-options';
 import type { FixResult } from './fix-result';
 import { hasNodeContent, moveNodeContent } from './move-node-content';
-import { fixedName, readSamplerCurve } from './sampler-output';
+import { listRootNodes } from './root-nodes';
+import { fixedName } from './sampler-output';
 
 export const REMOVE_BAKED_BASIS = 'removeBakedBasis';
 
@@ -98,17 +100,9 @@ export function removeBakedBasis(options: RemoveBakedBasisOptions = {}): Transfo
   };
 }
 
-/** Scene roots and root joints (as the rules see them), top down. */
-function listRoots(document: Document): Node[] {
-  const tree = readNodeTree(document);
-  return tree.topDownOrder
-    .filter((nodeIndex) => tree.parents[nodeIndex] === -1 || tree.isRootJoint[nodeIndex] === 1)
-    .map((nodeIndex) => tree.nodes[nodeIndex]);
-}
-
 /** The first root, top down, whose rest rotation is a principal turn within tolerance. */
 function findCorrectedRoot(document: Document, toleranceDegrees: number): { node: Node; turn: PrincipalTurn } | null {
-  for (const node of listRoots(document)) {
+  for (const node of listRootNodes(document)) {
     const [x, y, z, w] = node.getRotation();
     const match = findPrincipalTurn(x, y, z, w, toleranceDegrees);
     if (match) return { node, turn: match.turn };
@@ -147,36 +141,6 @@ function foldRootTurn(document: Document, root: Node, basis: BasisTurn): Omit<Fi
         edits.push({ channel, map: translationMap(basis) });
     }
   return { ...applyChannelEdits(document, edits), nodesChanged };
-}
-
-/** `before·q·after` on every key (values and tangents: the map is linear). */
-function rotationMap(id: string, before: Quat | null, after: Quat | null): KeyMap {
-  return {
-    id: `rotation:${id}`,
-    components: 4,
-    apply(slot, offset) {
-      let q: Quat = [slot[offset], slot[offset + 1], slot[offset + 2], slot[offset + 3]];
-      if (before) q = multiply(before, q);
-      if (after) q = multiply(q, after);
-      slot.set(q, offset);
-    }
-  };
-}
-
-function translationMap(basis: BasisTurn): KeyMap {
-  return {
-    id: 'translation',
-    components: 3,
-    apply: (slot, offset) => slot.set(rotateVector(basis, slot.subarray(offset, offset + 3)), offset)
-  };
-}
-
-function scaleMap(basis: BasisTurn): KeyMap {
-  return {
-    id: 'scale',
-    components: 3,
-    apply: (slot, offset) => slot.set(permuteScale(basis, slot.subarray(offset, offset + 3)), offset)
-  };
 }
 
 /**
@@ -226,55 +190,4 @@ function premultiplyInverseBind(document: Document, skin: Skin, joint: Node, bas
   const isShared = accessor.listParents().some((parent) => parent !== root && parent !== skin);
   if (isShared) skin.setInverseBindMatrices(accessor.clone().setName(fixedName(accessor.getName())).setArray(array));
   else accessor.setArray(array);
-}
-
-/** Root rotation channels whose keys all sit one principal turn away from the rest rotation. */
-function findClipOffsets(document: Document, toleranceDegrees: number): ChannelEdit[] {
-  const roots = new Set(listRoots(document));
-  const edits: ChannelEdit[] = [];
-  for (const animation of document.getRoot().listAnimations())
-    for (const channel of animation.listChannels()) {
-      const node = channel.getTargetNode();
-      if (!node || !roots.has(node) || channel.getTargetPath() !== 'rotation') continue;
-      const edit = findClipOffset(channel, node.getRotation(), toleranceDegrees);
-      if (edit) edits.push(edit);
-    }
-  return edits;
-}
-
-/**
- * The offset turn common to every key on the parent side (key·rest*), then the local side
- * (rest*·key), as clip-basis-offset looks for it: the first key names the turn, every key must be
- * within tolerance of it.
- */
-function findClipOffset(channel: AnimationChannel, rest: Quat, toleranceDegrees: number): ChannelEdit | null {
-  const sampler = channel.getSampler();
-  const curve = sampler ? readSamplerCurve(sampler) : null;
-  if (!curve || curve.keyCount === 0 || !(Math.hypot(...rest) > 0)) return null;
-  const restConjugate: Quat = [-rest[0], -rest[1], -rest[2], rest[3]];
-  const cosineLimit = Math.cos((toleranceDegrees * Math.PI) / 360);
-  for (const side of ['parent', 'local'] as const) {
-    const offsetOf = (keyIndex: number) => {
-      const key = curve.values.subarray(keyIndex * 4, keyIndex * 4 + 4);
-      return side === 'parent' ? multiply(key, restConjugate) : multiply(restConjugate, key);
-    };
-    const first = offsetOf(0);
-    const match = findPrincipalTurn(first[0], first[1], first[2], first[3], toleranceDegrees);
-    if (!match) continue;
-    const [tx, ty, tz, tw] = match.turn.quaternion;
-    let isCommon = true;
-    for (let keyIndex = 0; keyIndex < curve.keyCount && isCommon; keyIndex++) {
-      const [x, y, z, w] = offsetOf(keyIndex);
-      const cosine = Math.abs(x * tx + y * ty + z * tz + w * tw) / Math.hypot(x, y, z, w);
-      isCommon = cosine >= cosineLimit;
-    }
-    if (!isCommon) continue;
-    const inverse: Quat = [-tx, -ty, -tz, tw];
-    const map =
-      side === 'parent'
-        ? rotationMap(`clip-parent:${match.turn.axis}${match.turn.angleDegrees}`, inverse, null)
-        : rotationMap(`clip-local:${match.turn.axis}${match.turn.angleDegrees}`, null, inverse);
-    return { channel, map };
-  }
-  return null;
 }
