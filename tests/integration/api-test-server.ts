@@ -1,0 +1,299 @@
+/**
+ * A real Orientry server for the API tests: the production build (`node build`, built first when
+ * stale) on a free port with a throw-away data folder and database. The test process opens the
+ * same SQLite file (WAL lets both in) to seed projects, people and tokens and to count rows.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { hashPassword } from '$lib/server/auth/password';
+import { migrate } from '$lib/server/db/migrate';
+import { openDatabase, type Database } from '$lib/server/db/instance';
+import { Project, ProjectMembership, User } from '$lib/server/db/models';
+import type { ProjectRole, UserRole } from '$lib/types/roles';
+import * as apiTokens from '$lib/server/tokens/api-tokens';
+import { ensureBuild } from '../../scripts/ensure-build.js';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+
+/** A running server with its data. */
+export interface ApiTestServer {
+  url: string;
+  dataDir: string;
+  database: Database;
+  child: ChildProcess;
+  /** Lines the server printed (stdout and stderr), for failure messages. */
+  output: string[];
+  /** Stops the server (SIGTERM) and waits for it to exit. */
+  stop(): Promise<void>;
+  /** Starts the server again on the same data (after a stop or a kill). */
+  restart(): Promise<void>;
+  /** Stops the server, closes the database and deletes the data folder. */
+  remove(): Promise<void>;
+}
+
+/** Environment every test server gets on top of the caller's. */
+const BASE_ENV = {
+  NODE_ENV: 'production',
+  // adapter-node refuses bodies over 512 KiB before any route runs; the route enforces its own limits.
+  BODY_SIZE_LIMIT: 'Infinity',
+  AUTH_SECRET: 'api-test-secret-that-is-at-least-32-characters-long'
+};
+
+/**
+ * Builds the app if needed, makes a data folder with a migrated database and starts the server.
+ * @param env extra environment (e.g. small ORIENTRY_MAX_* limits).
+ */
+export async function startApiTestServer(env: Record<string, string> = {}): Promise<ApiTestServer> {
+  const buildDir = await copyOfBuild();
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-api-'));
+  const storage = path.join(dataDir, 'api.db');
+  const database = openDatabase({ dialect: 'sqlite', storage });
+  await migrate(database.sequelize);
+
+  const port = await freePort();
+  const url = `http://127.0.0.1:${port}`;
+  const output: string[] = [];
+  const serverEnv = {
+    ...process.env,
+    ...BASE_ENV,
+    ...env,
+    PORT: String(port),
+    HOST: '127.0.0.1',
+    ORIGIN: url,
+    DATA_DIR: dataDir,
+    DATABASE_URL: `sqlite:${storage}`
+  };
+  const server: ApiTestServer = {
+    url,
+    dataDir,
+    database,
+    child: await launch(buildDir, serverEnv, url, output),
+    output,
+    async stop() {
+      await stopChild(server.child);
+    },
+    async restart() {
+      await stopChild(server.child);
+      server.child = await launch(buildDir, serverEnv, url, output);
+    },
+    async remove() {
+      await stopChild(server.child);
+      await database.sequelize.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
+      fs.rmSync(buildDir, { recursive: true, force: true });
+    }
+  };
+  return server;
+}
+
+async function launch(buildDir: string, env: NodeJS.ProcessEnv, url: string, output: string[]): Promise<ChildProcess> {
+  const child = spawn(process.execPath, [buildDir], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+  for (const stream of [child.stdout!, child.stderr!]) {
+    stream.setEncoding('utf8');
+    stream.on('data', (text: string) => output.push(...text.split('\n').filter(Boolean)));
+  }
+  const deadline = Date.now() + 30_000;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null || child.signalCode !== null) {
+      throw new Error(`The test server exited early:\n${output.join('\n')}`);
+    }
+    try {
+      if ((await fetch(`${url}/api/health`)).ok) return child;
+    } catch {
+      // Connection refused until the server listens: expected while it starts.
+    }
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+  child.kill('SIGKILL');
+  throw new Error(`The test server did not answer within 30 s:\n${output.join('\n')}`);
+}
+
+async function stopChild(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  child.kill(signal);
+  await exited;
+}
+
+/** A TCP port nobody listens on right now. */
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = net.createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as net.AddressInfo;
+      probe.close(() => resolve(port));
+    });
+  });
+}
+
+/**
+ * A private copy of the current build, so a rebuild started by another test file cannot swap
+ * route chunks under this file's running server. It lives under node_modules/.cache so the
+ * server still resolves its packages from the project's node_modules.
+ */
+async function copyOfBuild(): Promise<string> {
+  const copy = path.join(ROOT, 'node_modules', '.cache', 'orientry', `api-build-${process.pid}-${Date.now()}`);
+  await withBuildLock(async () => {
+    ensureBuild();
+    fs.cpSync(path.join(ROOT, 'build'), copy, { recursive: true });
+  });
+  return copy;
+}
+
+/**
+ * Runs `work` under a lock folder, so test files starting together in parallel workers build
+ * once instead of overwriting each other's build/ folder.
+ */
+async function withBuildLock(work: () => Promise<void>): Promise<void> {
+  const lock = path.join(ROOT, 'node_modules', '.cache', 'orientry', 'build.lock');
+  fs.mkdirSync(path.dirname(lock), { recursive: true });
+  const deadline = Date.now() + 600_000;
+  for (;;) {
+    try {
+      fs.mkdirSync(lock);
+      break;
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+      // A lock older than the longest build is left by a killed run: take it over.
+      if (Date.now() - fs.statSync(lock).mtimeMs > 600_000) fs.rmSync(lock, { recursive: true, force: true });
+      if (Date.now() > deadline) throw new Error(`Waited 10 minutes for the build lock ${lock}.`, { cause: error });
+      await new Promise((resolve) => setTimeout(resolve, 500));
+    }
+  }
+  try {
+    await work();
+  } finally {
+    fs.rmSync(lock, { recursive: true, force: true });
+  }
+}
+
+/** A seeded person with their password. */
+export interface SeededUser {
+  id: number;
+  email: string;
+  password: string;
+}
+
+/** Creates a user with a password (bcrypt-hashed as the app does). */
+export async function seedUser(email: string, role: UserRole = 'artist'): Promise<SeededUser> {
+  const password = `pw-${email}`;
+  const user = await User.create({
+    email,
+    name: email.split('@')[0],
+    role,
+    passwordHash: await hashPassword(password)
+  });
+  return { id: user.id, email, password };
+}
+
+/** Creates a project, with members, and a submit token; returns the project and the token's secret. */
+export async function seedProject(
+  slug: string,
+  members: { user: SeededUser; role: ProjectRole }[] = [],
+  baseBranch = 'main'
+): Promise<{ project: Project; secret: string; tokenId: number }> {
+  const project = await Project.create({ slug, name: slug.replace(/-/g, ' '), baseBranch });
+  for (const { user, role } of members)
+    await ProjectMembership.create({ projectId: project.id, userId: user.id, role });
+  const token = await apiTokens.create(project.id, 'CI', null);
+  return { project, secret: token.secret, tokenId: token.id };
+}
+
+/**
+ * Signs in through Auth.js's credentials flow like a browser and returns the Cookie header to
+ * send with later requests.
+ */
+export async function signIn(server: ApiTestServer, user: SeededUser): Promise<string> {
+  const csrfResponse = await fetch(`${server.url}/auth/csrf`);
+  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
+  const jar = new Map<string, string>();
+  const keep = (response: Response) => {
+    for (const cookie of response.headers.getSetCookie()) {
+      const [pair] = cookie.split(';');
+      const [name, ...value] = pair.split('=');
+      jar.set(name, value.join('='));
+    }
+  };
+  keep(csrfResponse);
+  const cookieHeader = () => [...jar].map(([name, value]) => `${name}=${value}`).join('; ');
+  const response = await fetch(`${server.url}/auth/callback/credentials`, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.url, cookie: cookieHeader() },
+    body: new URLSearchParams({ csrfToken, email: user.email, password: user.password, callbackUrl: server.url })
+  });
+  keep(response);
+  if (![...jar.keys()].some((name) => name.includes('session-token'))) {
+    throw new Error(
+      `Sign-in as ${user.email} failed (status ${response.status}, ${response.headers.get('location')}).`
+    );
+  }
+  return cookieHeader();
+}
+
+/** A file of a build upload: its relative path and bytes. */
+export interface UploadFile {
+  path: string;
+  bytes: Uint8Array | string;
+}
+
+/** Options of {@link postBuild}. */
+export interface PostBuildOptions {
+  /** Authorization header value; default `Bearer <secret>`. Null sends none. */
+  authorization?: string | null;
+  /** The meta part as text (for malformed meta); default JSON of `meta`. */
+  metaText?: string;
+  /** Leave the meta part out. */
+  omitMeta?: boolean;
+  /** Extra headers. */
+  headers?: Record<string, string>;
+}
+
+/**
+ * Posts a build as the CLI does: multipart with `file` parts named by relative path and a `meta`
+ * JSON part, with the Origin header SvelteKit requires on multipart posts.
+ */
+export async function postBuild(
+  server: ApiTestServer,
+  slug: string,
+  secret: string,
+  files: readonly UploadFile[],
+  meta: Record<string, unknown> = { branch: 'main' },
+  options: PostBuildOptions = {}
+): Promise<Response> {
+  const form = new FormData();
+  if (!options.omitMeta) form.append('meta', options.metaText ?? JSON.stringify(meta));
+  for (const file of files) form.append('file', new Blob([file.bytes as BlobPart]), file.path);
+  const authorization = options.authorization === undefined ? `Bearer ${secret}` : options.authorization;
+  return fetch(`${server.url}/api/v1/projects/${slug}/builds`, {
+    method: 'POST',
+    body: form,
+    headers: {
+      origin: server.url,
+      accept: 'application/json',
+      ...(authorization === null ? {} : { authorization }),
+      ...options.headers
+    }
+  });
+}
+
+/** Row counts of every table a build writes, to show that a refused upload wrote nothing. */
+export async function countBuildRows(database: Database): Promise<Record<string, number>> {
+  const counts: Record<string, number> = {};
+  for (const table of ['builds', 'assets', 'findings', 'asset_side_files']) {
+    const [rows] = await database.sequelize.query(`SELECT COUNT(*) AS n FROM ${table}`);
+    counts[table] = Number((rows as { n: number }[])[0].n);
+  }
+  return counts;
+}
+
+/** Names of the upload folders left in the data folder (none once every request has ended). */
+export function listUploadFolders(server: ApiTestServer): string[] {
+  const root = path.join(server.dataDir, 'uploads');
+  return fs.existsSync(root) ? fs.readdirSync(root) : [];
+}
