@@ -10,6 +10,8 @@
  */
 import { AnimationChannel, Animation, type AnimationSampler, type Document } from '@gltf-transform/core';
 import type { KeyCurve } from './key-curve';
+import { isNormalizedIntType } from './normalized-int';
+import { renormalizeKeys } from './renormalize-keys';
 import {
   commitOutputEdits,
   encodeSamplerCurve,
@@ -17,6 +19,9 @@ import {
   type CommitCounts,
   type OutputEdit
 } from './sampler-output';
+
+/** Shorter than this is not-a-rotation's business (the policy default), so it is not rescaled. */
+const QUANTIZED_ZERO_LENGTH = 1e-6;
 
 /** A change to every key of a channel: maps values and tangents in place. */
 export interface KeyMap {
@@ -63,6 +68,11 @@ export function applyChannelEdits(
     const curve = readSamplerCurve(sampler, map.components);
     if (!curve || curve.keyCount === 0) continue;
     mapCurve(curve, map);
+    // Quantized rotations are re-rounded anyway; rounding from length exactly 1 keeps them within one
+    // step of unit length (unit-drift allows two), whatever drift within tolerance they had before.
+    const output = sampler.getOutput();
+    if (map.components === 4 && output && isNormalizedIntType(output.getComponentType(), output.getNormalized()))
+      renormalizeKeys(curve, { unitTolerance: 0, zeroLength: QUANTIZED_ZERO_LENGTH });
     keysChanged += curve.keyCount;
     outputEdits.push({ sampler, array: encodeSamplerCurve(sampler, curve, map.components) });
   }

@@ -280,6 +280,35 @@ describe('removeBakedBasis', () => {
     expect(rulesOf(document)).not.toContain('clip-basis-offset');
   });
 
+  it('rounds turned quantized keys from unit length, so they land within one BYTE step of it', async () => {
+    const { document, animation } = createHarborDocument();
+    const rig = addNode(document, 'SkiffRig', null, { rotation: Z_UP_TO_Y_UP });
+    const oar = addNode(document, 'Oar', rig);
+    // Lengths 0.9915, 1.0078 and 0.9922: inside unit-drift's two-step BYTE tolerance (2/127), so legal input.
+    const codes = new Int8Array([71, 0, 0, 104, 0, 45, 0, 120, -20, 0, 15, 124]);
+    addChannel(document, animation, {
+      node: oar,
+      interpolation: 'LINEAR',
+      times: [0, 1, 2],
+      output: codes,
+      normalized: true
+    });
+
+    await document.transform(removeBakedBasis());
+
+    const fixed = document
+      .getRoot()
+      .listAccessors()
+      .find((a) => a.getName() === 'Oar.rotation.values')!
+      .getArray()!;
+    for (let k = 0; k < 3; k++) {
+      // glTF 2.0 §3.11: BYTE decodes as max(c/127, −1).
+      const length = Math.hypot(...[...fixed.subarray(k * 4, k * 4 + 4)].map((c) => Math.max(c / 127, -1)));
+      expect(Math.abs(length - 1)).toBeLessThanOrEqual(1 / 127);
+    }
+    expect(rulesOf(document)).not.toContain('unit-drift');
+  });
+
   it('leaves a root whose rest is no principal turn, and its clips, alone; and changes nothing on a second run', async () => {
     const { document, animation } = createHarborDocument();
     const dock = addNode(document, 'Dock', null, { rotation: [0, 0.2588, 0, 0.9659] }); // 30° about Y

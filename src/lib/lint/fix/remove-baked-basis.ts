@@ -13,6 +13,7 @@
  * every node is the same as before, at rest and at every key. Joint matrices stay the same too: the
  * root joint's inverse bind matrix is premultiplied by C (joint matrix = world · inverse bind, §3.7.3),
  * and content on the root itself (mesh, camera, lights) moves to a new child holding C.
+ * Quantized rotation outputs are re-encoded (§3.11) from unit length, so they stay within one step of it.
  * Folding C into a child can turn that child into a corrected root joint (an armature node above the
  * hips); it is folded in turn, top down, until no root carries a principal turn.
  *
