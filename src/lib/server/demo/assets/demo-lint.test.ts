@@ -85,7 +85,7 @@ describe('each defect trips the rule it is built for', () => {
     [
       'redundantKeys',
       () => createCharacter({ name: 'Fixture' }),
-      defectStep('redundantKeys', { animation: 'Idle', node: 'Spine', fromKey: 5, count: 2 })
+      defectStep('redundantKeys', { animation: 'Idle', node: 'Spine', afterKey: 5 })
     ],
     ['quantizeRotations', () => createCharacter({ name: 'Fixture' }), defectStep('quantizeRotations', {})]
   ];

@@ -41,7 +41,7 @@ const asset = (key: DemoAssetKey, revision: number, ...defects: DefectStep[]): T
 
 // Standing issues that stay until a later build fixes them.
 const keeperIdleDrift = defectStep('driftLength', { animation: 'Idle', node: 'Head', factor: 1.003 });
-const wardenWaveRedundant = defectStep('redundantKeys', { animation: 'Wave', node: 'Hand.R', fromKey: 10, count: 3 });
+const wardenWaveRedundant = defectStep('redundantKeys', { animation: 'Wave', node: 'Hand.R', afterKey: 10, count: 5 });
 const wardenIdleDrift = defectStep('driftLength', {
   animation: 'Idle',
   node: 'Spine',
@@ -52,8 +52,8 @@ const wardenIdleDrift = defectStep('driftLength', {
 const buoyClapperRedundant = defectStep('redundantKeys', {
   animation: 'Swell',
   node: 'Bell Clapper',
-  fromKey: 20,
-  count: 2
+  afterKey: 20,
+  count: 6
 });
 const buoySwellDrift = defectStep('driftLength', { animation: 'Swell', node: 'Tide Buoy', factor: 1.003 });
 const swimArmFlip = defectStep('flipHemisphere', { animation: 'Swim', node: 'UpperArm.L', fromKey: 31 });

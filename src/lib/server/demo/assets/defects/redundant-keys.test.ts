@@ -10,27 +10,38 @@ glMatrix.setMatrixArrayType(Array);
 const fixture = () => createCharacter({ name: 'Fixture' });
 
 describe('redundantKeys', () => {
-  test('inserts slerp midpoints that interpolation of their neighbours already reproduces', async () => {
+  test('inserts a run of keys that interpolating their own neighbours already reproduces', async () => {
     const before = findTrack(listRotationTracks(fixture()), 'Wave', 'Hand.R');
     const after = findTrack(
       listRotationTracks(
-        await roundTripGlb(redundantKeys(fixture(), { animation: 'Wave', node: 'Hand.R', fromKey: 10, count: 3 }))
+        await roundTripGlb(redundantKeys(fixture(), { animation: 'Wave', node: 'Hand.R', afterKey: 10, count: 5 }))
       ),
       'Wave',
       'Hand.R'
     );
-    expect(after.keys).toHaveLength(before.keys.length + 3);
-    for (const inserted of [11, 13, 15]) {
+    expect(after.keys).toHaveLength(before.keys.length + 5);
+    for (let inserted = 11; inserted <= 15; inserted++) {
       const [previous, next] = [after.keys[inserted - 1], after.keys[inserted + 1]];
-      expect(after.times[inserted]).toBeCloseTo((after.times[inserted - 1] + after.times[inserted + 1]) / 2, 6);
-      // Oracle: gl-matrix quat.slerp at the midpoint (glTF 2.0 Appendix C); within Orientry's 0.01° redundancy tolerance.
-      expect(angleDegrees(after.keys[inserted], quat.slerp(quat.create(), previous, next, 0.5))).toBeLessThan(0.01);
+      const fraction =
+        (after.times[inserted] - after.times[inserted - 1]) / (after.times[inserted + 1] - after.times[inserted - 1]);
+      // Oracle: gl-matrix quat.slerp of the neighbours at the key's time (glTF 2.0 Appendix C);
+      // within Orientry's default 0.01° redundancy tolerance.
+      expect(angleDegrees(after.keys[inserted], quat.slerp(quat.create(), previous, next, fraction))).toBeLessThan(
+        0.01
+      );
+      expect(after.times[inserted]).toBeGreaterThan(after.times[inserted - 1]);
     }
-    // The original keys keep their values and order around the inserted ones.
-    expect(angleDegrees(after.keys[16], before.keys[13])).toBeLessThan(1e-6);
+    // The original keys keep their values around the run.
+    expect(angleDegrees(after.keys[10], before.keys[10])).toBeLessThan(1e-6);
+    expect(angleDegrees(after.keys[16], before.keys[11])).toBeLessThan(1e-6);
+    expect(after.times[16]).toBe(before.times[11]);
   });
 
-  test('refuses a CUBICSPLINE channel, where a midpoint would need tangents too', () => {
-    expect(() => redundantKeys(fixture(), { animation: 'Tread', node: 'Hips', fromKey: 2 })).toThrow(DemoAssetError);
+  test('refuses a CUBICSPLINE channel, where new keys would need tangents too', () => {
+    expect(() => redundantKeys(fixture(), { animation: 'Tread', node: 'Hips', afterKey: 2 })).toThrow(DemoAssetError);
+  });
+
+  test('refuses the last key, which has no gap after it', () => {
+    expect(() => redundantKeys(fixture(), { animation: 'Wave', node: 'Hand.R', afterKey: 60 })).toThrow(/outside/);
   });
 });

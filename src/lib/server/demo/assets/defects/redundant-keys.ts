@@ -5,20 +5,22 @@ import { assertKeyInRange, getKey, readRotationTrack, writeRotationTrack, type R
 
 /** Options for {@link redundantKeys}. */
 export interface RedundantKeysOptions extends RotationTarget {
-  /** First key after which a redundant key is inserted. */
-  fromKey: number;
-  /** How many consecutive gaps get one (1 by default). */
+  /** The new keys go between this key and the next. */
+  afterKey: number;
+  /** How many keys to insert (5 by default: a run long enough to be worth removing). */
   count?: number;
 }
 
 /**
- * Inserts a key halfway between keys k and k + 1 for `count` gaps from `fromKey`, holding exactly
- * the slerp midpoint (glTF 2.0 Appendix C), so the player already produces it: the key adds
- * bytes and nothing else. Bakes that sample at twice the needed rate look like this. LINEAR
+ * Inserts `count` evenly spaced keys between keys `afterKey` and `afterKey + 1`, each holding
+ * exactly the slerp of those two keys at its time (glTF 2.0 Appendix C). Every inserted key is
+ * then reproduced by interpolating its own neighbours, so the run adds bytes and changes nothing
+ * on screen: what a bake at several times the needed rate leaves on a steady stretch. LINEAR
  * channels only. Mutates and returns `document`.
+ * @throws DemoAssetError for a channel that is not LINEAR or a key without a successor.
  */
 export function redundantKeys(document: Document, options: RedundantKeysOptions): Document {
-  const count = options.count ?? 1;
+  const count = options.count ?? 5;
   const track = readRotationTrack(document, options);
   if (track.interpolation !== 'LINEAR') {
     throw new DemoAssetError(
@@ -26,17 +28,21 @@ export function redundantKeys(document: Document, options: RedundantKeysOptions)
       `redundantKeys: "${options.animation}" / "${options.node}" is ${track.interpolation}; pick a LINEAR channel.`
     );
   }
-  assertKeyInRange(track, options.fromKey, 0, count, 'redundantKeys');
-  const times: number[] = [];
-  const values: number[] = [];
-  for (let keyIndex = 0; keyIndex < track.times.length; keyIndex++) {
-    times.push(track.times[keyIndex]);
-    values.push(...getKey(track, keyIndex));
-    if (keyIndex >= options.fromKey && keyIndex < options.fromKey + count) {
-      times.push((track.times[keyIndex] + track.times[keyIndex + 1]) / 2);
-      values.push(...slerp(getKey(track, keyIndex), getKey(track, keyIndex + 1), 0.5));
-    }
+  assertKeyInRange(track, options.afterKey, 0, 1, 'redundantKeys');
+  const start = options.afterKey;
+  const [startTime, endTime] = [track.times[start], track.times[start + 1]];
+  const [startKey, endKey] = [getKey(track, start), getKey(track, start + 1)];
+  const times = Array.from(track.times);
+  const values = Array.from(track.values);
+  const insertedTimes: number[] = [];
+  const insertedValues: number[] = [];
+  for (let step = 1; step <= count; step++) {
+    const fraction = step / (count + 1);
+    insertedTimes.push(startTime + (endTime - startTime) * fraction);
+    insertedValues.push(...slerp(startKey, endKey, fraction));
   }
+  times.splice(start + 1, 0, ...insertedTimes);
+  values.splice((start + 1) * 4, 0, ...insertedValues);
   track.times = Float32Array.from(times);
   track.values = Float32Array.from(values);
   writeRotationTrack(document, track);
