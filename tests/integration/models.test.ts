@@ -13,7 +13,7 @@ import {
   Waiver,
   WaiverEvent
 } from '$lib/server/db/models';
-import { createApiToken } from '$lib/server/projects/api-tokens';
+import * as apiTokens from '$lib/server/tokens/api-tokens';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
@@ -186,7 +186,7 @@ describe('cascade rules', () => {
   it('deletes everything a project owns with the project', async () => {
     const [user, project] = await Promise.all([makeUser(), makeProject()]);
     await ProjectMembership.create({ projectId: project.id, userId: user.id, role: 'lead' });
-    await createApiToken({ projectId: project.id, name: 'CI', createdById: user.id });
+    await apiTokens.create(project.id, 'CI', user.id);
     await ProjectPolicy.create({
       projectId: project.id,
       revision: 1,
@@ -251,7 +251,7 @@ describe('cascade rules', () => {
   it('keeps a deleted user\u2019s tokens, policies and waivers, with the author set to null', async () => {
     const [user, project] = await Promise.all([makeUser(), makeProject()]);
     await ProjectMembership.create({ projectId: project.id, userId: user.id, role: 'lead' });
-    const { token } = await createApiToken({ projectId: project.id, name: 'CI', createdById: user.id });
+    const token = (await ApiToken.findByPk((await apiTokens.create(project.id, 'CI', user.id)).id))!;
     const waiver = await Waiver.create({
       projectId: project.id,
       scope: 'fingerprint',
@@ -304,7 +304,8 @@ describe('waivers', () => {
 describe('API tokens', () => {
   it('stores only the SHA-256 of the secret and a short prefix', async () => {
     const project = await makeProject();
-    const { token, secret } = await createApiToken({ projectId: project.id, name: 'CI', createdById: null });
+    const { id, secret } = await apiTokens.create(project.id, 'CI', null);
+    const token = (await ApiToken.findByPk(id))!;
     // FIPS 180-4 SHA-256, computed independently with node:crypto.
     expect(token.tokenHash).toBe(crypto.createHash('sha256').update(secret).digest('hex'));
     expect(secret.startsWith(token.prefix)).toBe(true);

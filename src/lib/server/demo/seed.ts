@@ -1,7 +1,7 @@
 import { parsePolicy, policyVersionOf } from '../../lint/policy';
 import { hashPassword } from '../auth/password';
 import { Project, ProjectMembership, ProjectPolicy, User } from '../db/models';
-import { createApiToken } from '../projects/api-tokens';
+import * as apiTokens from '../tokens/api-tokens';
 import { DEMO_ACCOUNTS, DEMO_PROJECTS, type DemoAccount } from './demo-accounts';
 
 /** A demo project's CI token, to print and to post the build history with. */
@@ -51,7 +51,7 @@ export async function seedDemo(): Promise<DemoSeed> {
       policyVersion: policyVersionOf(policy),
       createdById: adminId
     });
-    const { secret } = await createApiToken({ projectId: project.id, name: 'CI (demo)', createdById: adminId });
+    const { secret } = await apiTokens.create(project.id, 'CI (demo)', adminId);
     tokens.push({ projectSlug: demo.slug, secret });
   }
   return { accounts: DEMO_ACCOUNTS, tokens };
