@@ -1,0 +1,153 @@
+/**
+ * A multipart/form-data request body (RFC 7578) streamed from disk: files are read in chunks as
+ * the connection takes them, so a build of any size is uploaded without holding it in memory.
+ * The total length is known up front from the file sizes, so the request carries a
+ * Content-Length and the server can refuse an oversized upload before reading it.
+ */
+import { randomBytes } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { CliError } from './cli-error';
+import { ExitCode } from './exit-codes';
+
+/** A text field, e.g. the build's `meta` JSON. */
+export interface MultipartField {
+  kind: 'field';
+  name: string;
+  value: string;
+  contentType?: string;
+}
+
+/** A file read from disk when the body streams. */
+export interface MultipartFile {
+  kind: 'file';
+  name: string;
+  /** The `filename` parameter; for a build upload, the file's relative path. */
+  fileName: string;
+  absolutePath: string;
+  /** Size measured beforehand; a file that no longer has it fails the upload. */
+  byteLength: number;
+  contentType?: string;
+}
+
+export type MultipartPart = MultipartField | MultipartFile;
+
+/** A body that can be streamed as often as an upload is attempted. */
+export interface MultipartBody {
+  /** The request's Content-Type, with the boundary. */
+  contentType: string;
+  /** Exact length of every stream `open` returns, for Content-Length. */
+  byteLength: number;
+  /**
+   * A new stream of the whole body (each retry needs its own).
+   * @param onBytes called with the size of each chunk as the reader takes it, for progress.
+   */
+  open(onBytes?: (byteLength: number) => void): ReadableStream<Uint8Array>;
+}
+
+/** Chunk size for file reads: large enough for few syscalls, small enough to stay light. */
+const READ_CHUNK_BYTES = 256 * 1024;
+const CRLF = '\r\n';
+
+/**
+ * Lays out the parts and returns the body; nothing is read until a stream is opened.
+ * @param boundary a fixed boundary for tests; by default 24 random bytes in hex, which no file
+ *   will contain by chance (RFC 2046 §5.1.1 asks only that it not occur in the content).
+ */
+export function createMultipartBody(parts: readonly MultipartPart[], boundary = newBoundary()): MultipartBody {
+  const heads = parts.map((part) => Buffer.from(partHead(part, boundary), 'utf8'));
+  const tail = Buffer.from(`--${boundary}--${CRLF}`, 'utf8');
+  let byteLength = tail.length;
+  for (const [index, part] of parts.entries()) {
+    const contentLength = part.kind === 'file' ? part.byteLength : Buffer.byteLength(part.value, 'utf8');
+    byteLength += heads[index].length + contentLength + CRLF.length;
+  }
+  return {
+    contentType: `multipart/form-data; boundary=${boundary}`,
+    byteLength,
+    open(onBytes) {
+      const chunks = bodyChunks(parts, heads, tail);
+      return new ReadableStream<Uint8Array>({
+        async pull(controller) {
+          const next = await chunks.next();
+          if (next.done) {
+            controller.close();
+            return;
+          }
+          onBytes?.(next.value.byteLength);
+          controller.enqueue(next.value);
+        },
+        async cancel() {
+          // Closes the file being read, if any.
+          await chunks.return(undefined);
+        }
+      });
+    }
+  };
+}
+
+async function* bodyChunks(
+  parts: readonly MultipartPart[],
+  heads: readonly Buffer[],
+  tail: Buffer
+): AsyncGenerator<Uint8Array, void, undefined> {
+  const crlf = Buffer.from(CRLF);
+  for (const [index, part] of parts.entries()) {
+    yield heads[index];
+    if (part.kind === 'field') yield Buffer.from(part.value, 'utf8');
+    else yield* fileChunks(part);
+    yield crlf;
+  }
+  yield tail;
+}
+
+async function* fileChunks(file: MultipartFile): AsyncGenerator<Uint8Array, void, undefined> {
+  let byteLength = 0;
+  try {
+    for await (const chunk of createReadStream(file.absolutePath, { highWaterMark: READ_CHUNK_BYTES })) {
+      byteLength += (chunk as Buffer).length;
+      // Past the measured size the Content-Length would be a lie; stop before sending it.
+      if (byteLength > file.byteLength) break;
+      yield chunk as Buffer;
+    }
+  } catch (error) {
+    const reason = (error as { code?: string }).code ?? (error as Error).message;
+    throw new CliError('input.unreadable', `${file.fileName}: cannot read the file (${reason})`, ExitCode.UsageError, {
+      cause: error
+    });
+  }
+  if (byteLength !== file.byteLength) {
+    throw new CliError(
+      'input.changed',
+      `${file.fileName}: the file changed while it was uploaded (measured ${file.byteLength} bytes, then ` +
+        `${byteLength > file.byteLength ? 'it grew' : `read ${byteLength}`}); submit again once the build output is complete`,
+      ExitCode.UsageError
+    );
+  }
+}
+
+/** `--boundary`, Content-Disposition and Content-Type lines, and the blank line before the content. */
+function partHead(part: MultipartPart, boundary: string): string {
+  const disposition =
+    part.kind === 'file'
+      ? `form-data; name="${quoted(part.name)}"; filename="${quoted(part.fileName)}"`
+      : `form-data; name="${quoted(part.name)}"`;
+  const contentType = part.contentType ?? (part.kind === 'file' ? 'application/octet-stream' : undefined);
+  const lines = [`--${boundary}`, `Content-Disposition: ${disposition}`];
+  if (contentType) lines.push(`Content-Type: ${contentType}`);
+  return lines.join(CRLF) + CRLF + CRLF;
+}
+
+/**
+ * A parameter value for a quoted-string (RFC 9110 §5.6.4): backslash and double quote escaped.
+ * Line breaks and other control characters cannot be carried at all; callers refuse such names
+ * first, so meeting one here is a bug.
+ */
+function quoted(value: string): string {
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
+  if (/[\u0000-\u001f\u007f]/.test(value)) throw new Error(`multipart: control character in "${value}"`);
+  return value.replace(/[\\"]/g, (character) => `\\${character}`);
+}
+
+function newBoundary(): string {
+  return `orientry-${randomBytes(24).toString('hex')}`;
+}
