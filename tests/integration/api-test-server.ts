@@ -205,35 +205,24 @@ export async function seedProject(
 }
 
 /**
- * Signs in through Auth.js's credentials flow like a browser and returns the Cookie header to
- * send with later requests.
+ * Signs in through the sign-in form like a browser and returns the Cookie header to send with
+ * later requests.
  */
 export async function signIn(server: ApiTestServer, user: SeededUser): Promise<string> {
-  const csrfResponse = await fetch(`${server.url}/auth/csrf`);
-  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
-  const jar = new Map<string, string>();
-  const keep = (response: Response) => {
-    for (const cookie of response.headers.getSetCookie()) {
-      const [pair] = cookie.split(';');
-      const [name, ...value] = pair.split('=');
-      jar.set(name, value.join('='));
-    }
-  };
-  keep(csrfResponse);
-  const cookieHeader = () => [...jar].map(([name, value]) => `${name}=${value}`).join('; ');
-  const response = await fetch(`${server.url}/auth/callback/credentials`, {
+  const response = await fetch(`${server.url}/signin`, {
     method: 'POST',
     redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.url, cookie: cookieHeader() },
-    body: new URLSearchParams({ csrfToken, email: user.email, password: user.password, callbackUrl: server.url })
+    headers: { 'content-type': 'application/x-www-form-urlencoded', origin: server.url },
+    body: new URLSearchParams({ email: user.email, password: user.password, redirectTo: '/' })
   });
-  keep(response);
-  if (![...jar.keys()].some((name) => name.includes('session-token'))) {
-    throw new Error(
-      `Sign-in as ${user.email} failed (status ${response.status}, ${response.headers.get('location')}).`
-    );
+  const cookies = response.headers
+    .getSetCookie()
+    .map((cookie) => cookie.split(';')[0])
+    .filter((pair) => pair.includes('session-token=') && !pair.endsWith('='));
+  if (cookies.length === 0) {
+    throw new Error(`Sign-in as ${user.email} failed (status ${response.status}): ${await response.text()}`);
   }
-  return cookieHeader();
+  return cookies.join('; ');
 }
 
 /** A file of a build upload: its relative path and bytes. */
