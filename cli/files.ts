@@ -9,6 +9,8 @@ import { glob, isDynamicPattern } from 'tinyglobby';
 import { AssetReadError, type AssetSource } from '$lib/lint';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
+import { isInside } from './is-inside';
+import { isMissing } from './is-missing';
 
 /** One main file to lint: where it is on disk and how reports name it. */
 export interface InputFile {
@@ -146,15 +148,4 @@ function refused(relativePath: string): AssetReadError {
     `side file "${relativePath}" resolves outside the asset's folder; it was not read.`,
     'Keep buffers and images in the folder of the .gltf file (or below it), or embed them.'
   );
-}
-
-/** True when `path` lies strictly below `folder`. */
-function isInside(folder: string, path: string): boolean {
-  const fromFolder = relative(folder, path);
-  return fromFolder !== '' && fromFolder !== '..' && !fromFolder.startsWith(`..${sep}`) && !isAbsolute(fromFolder);
-}
-
-function isMissing(error: unknown): boolean {
-  const code = (error as { code?: unknown } | null)?.code;
-  return code === 'ENOENT' || code === 'ENOTDIR';
 }

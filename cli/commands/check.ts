@@ -3,32 +3,18 @@
  * `--output`), everything else to stderr, and the exit code tells CI whether anything reached
  * the failing severity.
  */
-import { mkdir, writeFile } from 'node:fs/promises';
-import { dirname, resolve } from 'node:path';
-import {
-  buildLintReport,
-  gateFailures,
-  isAssetIncluded,
-  lintAsset,
-  type AssetReport,
-  type AssetSource,
-  type LintReport,
-  toJsonReport,
-  toJunitXml,
-  toSarif,
-  toTextSummary,
-  type Policy
-} from '$lib/lint';
-import type { CheckOptions, ReportFormat } from '../args';
-import { CliError } from '../cli-error';
+import { resolve } from 'node:path';
+import { buildLintReport, gateFailures, type AssetReport, type LintReport, type Policy } from '$lib/lint';
+import type { CheckOptions } from '../args';
 import type { CommandContext } from '../command-context';
-import { getReadOptions } from '../draco';
 import { ExitCode } from '../exit-codes';
-import { expandInputs, readAssetSource, type InputFile } from '../files';
+import { expandInputs } from '../files';
+import { formatReport } from '../format-report';
+import { lintInputFile } from '../lint-input-file';
 import { plural } from '../plural';
 import { loadPolicy } from '../policy-file';
 import { createProgress } from '../progress';
-import { unreadableAssetReport } from '../unreadable-asset-report';
+import { writeReportFile } from '../write-report-file';
 
 /** Runs `orientry check` and returns the exit code. */
 export async function check(options: CheckOptions, context: CommandContext): Promise<ExitCode> {
@@ -42,7 +28,7 @@ export async function check(options: CheckOptions, context: CommandContext): Pro
   const assets: AssetReport[] = [];
   for (const [index, file] of files.entries()) {
     progress.step(index, files.length, file.displayPath);
-    assets.push(await lintFile(file, policy));
+    assets.push(await lintInputFile(file, policy));
   }
   progress.finish();
 
@@ -59,54 +45,10 @@ export async function check(options: CheckOptions, context: CommandContext): Pro
   if (options.outputPath === null) {
     context.stdout.write(text);
   } else {
-    await writeReport(resolve(context.cwd, options.outputPath), text, options.outputPath);
+    await writeReportFile(resolve(context.cwd, options.outputPath), text, options.outputPath);
     context.stderr.write(`${summaryLine(report, failures.length, gatePolicy, options.outputPath)}\n`);
   }
   return failures.length > 0 ? ExitCode.GateFailed : ExitCode.Pass;
-}
-
-/** Lints one file; a main file that cannot even be read becomes an `asset-unreadable` finding. */
-async function lintFile(file: InputFile, policy: Policy): Promise<AssetReport> {
-  // The library reports an excluded asset as skipped without looking at its bytes; don't read them.
-  if (!isAssetIncluded(file.displayPath, policy)) return lintAsset(unreadSource(file.displayPath), policy);
-  let source: AssetSource;
-  try {
-    source = await readAssetSource(file);
-  } catch (error) {
-    return unreadableAssetReport(file.displayPath, error, policy);
-  }
-  return lintAsset(source, policy, await getReadOptions(source.bytes));
-}
-
-/** A source with no bytes, for an asset the policy excludes (lintAsset skips it unread). */
-function unreadSource(path: string): AssetSource {
-  return { path, bytes: new Uint8Array(0), readSideFile: async () => null };
-}
-
-/** Renders the report in the chosen format. */
-export function formatReport(report: LintReport, format: ReportFormat, isColor: boolean): string {
-  switch (format) {
-    case 'text':
-      return toTextSummary(report, { color: isColor });
-    case 'json':
-      return toJsonReport(report);
-    case 'sarif':
-      return toSarif(report);
-    case 'junit':
-      return toJunitXml(report);
-  }
-}
-
-async function writeReport(absolutePath: string, text: string, shownPath: string): Promise<void> {
-  try {
-    await mkdir(dirname(absolutePath), { recursive: true });
-    await writeFile(absolutePath, text);
-  } catch (error) {
-    const reason = (error as { code?: string }).code ?? (error as Error).message;
-    throw new CliError('output.unwritable', `${shownPath}: cannot write the report (${reason})`, ExitCode.UsageError, {
-      cause: error
-    });
-  }
 }
 
 /** `orientry: 3 assets, 2 errors, 1 warning, 0 info; gate failed (2 at error or above); report in out.sarif` */

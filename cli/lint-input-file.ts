@@ -1,0 +1,27 @@
+/**
+ * Lints one file from disk with the lint library, for `check` and for `submit`'s local report.
+ * A file the policy excludes is not read at all; a file that cannot even be opened becomes an
+ * `asset-unreadable` finding, so the other files are still linted.
+ */
+import { isAssetIncluded, lintAsset, type AssetReport, type AssetSource, type Policy } from '$lib/lint';
+import { getReadOptions } from './draco';
+import { readAssetSource, type InputFile } from './files';
+import { unreadableAssetReport } from './unreadable-asset-report';
+
+/** The file's report; reports name it by `file.displayPath`. */
+export async function lintInputFile(file: InputFile, policy: Policy): Promise<AssetReport> {
+  // The library reports an excluded asset as skipped without looking at its bytes; don't read them.
+  if (!isAssetIncluded(file.displayPath, policy)) return lintAsset(unreadSource(file.displayPath), policy);
+  let source: AssetSource;
+  try {
+    source = await readAssetSource(file);
+  } catch (error) {
+    return unreadableAssetReport(file.displayPath, error, policy);
+  }
+  return lintAsset(source, policy, await getReadOptions(source.bytes));
+}
+
+/** A source with no bytes, for an asset the policy excludes (lintAsset skips it unread). */
+function unreadSource(path: string): AssetSource {
+  return { path, bytes: new Uint8Array(0), readSideFile: async () => null };
+}
