@@ -8,18 +8,18 @@ import { z } from 'zod';
 import { RULE_IDS, SEVERITIES, type RuleId, type Severity } from '$lib/lint';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
+import {
+  DEBUG_OPTION,
+  HELP_OPTION,
+  oneOf,
+  optionalText,
+  REPORT_FORMATS,
+  type OptionSpec,
+  type ReportFormat
+} from './option-spec';
+import { SUBMIT_NOTES, SUBMIT_OPTIONS, submitSchema, toSubmitOptions, type SubmitOptions } from './submit-args';
 
-/** One option of one command, as parseArgs needs it plus what help prints. */
-export interface OptionSpec {
-  /** Long name without dashes (`fail-on`). */
-  name: string;
-  /** One-letter alias without the dash (`o`). */
-  short?: string;
-  type: 'string' | 'boolean';
-  /** Placeholder for the value in help (`file.json`). */
-  valueName?: string;
-  description: string;
-}
+export { REPORT_FORMATS, type OptionSpec, type ReportFormat, type SubmitOptions };
 
 /** A command: what help shows and which options parseArgs accepts. */
 export interface CommandSpec {
@@ -33,22 +33,12 @@ export interface CommandSpec {
   notes: readonly string[];
 }
 
-export const COMMAND_NAMES = ['check', 'fix'] as const;
+export const COMMAND_NAMES = ['check', 'fix', 'submit'] as const;
 export type CommandName = (typeof COMMAND_NAMES)[number];
-
-/** Report formats `check` can write. */
-export const REPORT_FORMATS = ['text', 'json', 'sarif', 'junit'] as const;
-export type ReportFormat = (typeof REPORT_FORMATS)[number];
 
 /** Where the policy fields are documented; help points there instead of copying them. */
 export const POLICY_DOCS_PATH = 'src/lib/lint/policy.ts';
 
-const HELP_OPTION: OptionSpec = { name: 'help', short: 'h', type: 'boolean', description: 'Show this help.' };
-const DEBUG_OPTION: OptionSpec = {
-  name: 'debug',
-  type: 'boolean',
-  description: 'Print stack traces when something unexpected goes wrong.'
-};
 const POLICY_OPTION: OptionSpec = {
   name: 'policy',
   type: 'string',
@@ -128,6 +118,13 @@ export const COMMANDS: Record<CommandName, CommandSpec> = {
       'What was applied and the finding counts before and after go to stderr.',
       'Exit codes: 0 written, 2 usage or input error.'
     ]
+  },
+  submit: {
+    name: 'submit',
+    summary: 'Upload assets to an Orientry server as one build; the server lints them and decides the CI gate.',
+    usage: 'submit <files, folders or globs...> --server <url> --project <slug> [options]',
+    options: SUBMIT_OPTIONS,
+    notes: SUBMIT_NOTES
   }
 };
 
@@ -158,12 +155,8 @@ export type Invocation =
   | { kind: 'help'; command: CommandName | null }
   | { kind: 'version' }
   | { kind: 'check'; options: CheckOptions }
-  | { kind: 'fix'; options: FixOptions };
-
-const optionalText = z.string().min(1, 'needs a non-empty value').optional();
-
-const oneOf = <const T extends readonly [string, ...string[]]>(values: T) =>
-  z.enum(values, { error: (issue) => `expected one of ${values.join(', ')}, got "${String(issue.input)}"` });
+  | { kind: 'fix'; options: FixOptions }
+  | { kind: 'submit'; options: SubmitOptions };
 
 const checkSchema = z.object({
   positionals: z.array(z.string().min(1)).min(1, 'give at least one file, folder or glob to check'),
@@ -211,7 +204,8 @@ const fixSchema = z
  */
 export function parseCommandLine(argv: readonly string[]): Invocation {
   const [first, ...rest] = argv;
-  if (first === undefined) throw usage('args.no-command', 'no command given (use check or fix; see orientry --help)');
+  if (first === undefined)
+    throw usage('args.no-command', `no command given (use ${COMMAND_NAMES.join(', ')}; see orientry --help)`);
   if (first === '--help' || first === '-h') return { kind: 'help', command: null };
   if (first === '--version' || first === '-V') return { kind: 'version' };
   if (first === 'help') return { kind: 'help', command: rest[0] === undefined ? null : toCommandName(rest[0]) };
@@ -223,6 +217,8 @@ export function parseCommandLine(argv: readonly string[]): Invocation {
       return { kind: 'check', options: toCheckOptions(validate(command, checkSchema, raw)) };
     case 'fix':
       return { kind: 'fix', options: toFixOptions(validate(command, fixSchema, raw)) };
+    case 'submit':
+      return { kind: 'submit', options: toSubmitOptions(validate(command, submitSchema, raw)) };
   }
 }
 
@@ -255,7 +251,7 @@ function toCommandName(text: string): CommandName {
   if ((COMMAND_NAMES as readonly string[]).includes(text)) return text as CommandName;
   throw usage(
     'args.unknown-command',
-    `unknown command "${text}" (use ${COMMAND_NAMES.join(' or ')}; see orientry --help)`
+    `unknown command "${text}" (use ${COMMAND_NAMES.join(', ')}; see orientry --help)`
   );
 }
 

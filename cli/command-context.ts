@@ -13,10 +13,12 @@ export interface TextStream {
 export interface CommandContext {
   /** Working directory that relative paths and globs resolve against. */
   cwd: string;
-  /** The report (check) or nothing (fix). */
+  /** The report (check), nothing (fix), the build summary or report (submit). */
   stdout: TextStream;
   /** Summaries, warnings and progress. */
   stderr: TextStream;
   /** True when colour may be used on stdout (a terminal, and NO_COLOR unset). */
   isColorAllowed: boolean;
+  /** Environment variables (the API token and CI build details for `submit`). */
+  env: Readonly<Record<string, string | undefined>>;
 }

@@ -9,6 +9,7 @@ import { COMMAND_NAMES, COMMANDS, parseCommandLine, type Invocation } from './ar
 import type { CommandContext } from './command-context';
 import { check } from './commands/check';
 import { fix } from './commands/fix';
+import { submit } from './commands/submit';
 import { ExitCode } from './exit-codes';
 import { formatCommandHelp, formatMainHelp } from './help';
 import { reportError } from './report-error';
@@ -36,6 +37,8 @@ async function run(invocation: Invocation, context: CommandContext): Promise<Exi
       return check(invocation.options, context);
     case 'fix':
       return fix(invocation.options, context);
+    case 'submit':
+      return submit(invocation.options, context);
   }
 }
 
@@ -50,5 +53,6 @@ process.exitCode = await main(process.argv.slice(2), {
   cwd: process.cwd(),
   stdout: process.stdout,
   stderr: process.stderr,
-  isColorAllowed
+  isColorAllowed,
+  env: process.env
 });

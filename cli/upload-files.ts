@@ -1,0 +1,143 @@
+/**
+ * The files of one build upload: the assets the command line matched, plus the side files
+ * (buffers, images) each asset names inside its own folder, each under its path relative to a
+ * common root, with its size and SHA-256. The server receives them under exactly these paths,
+ * so an asset finds its `.bin` beside it there as it does on disk.
+ */
+import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { realpath, stat } from 'node:fs/promises';
+import { dirname, relative, resolve, sep } from 'node:path';
+import { CliError } from './cli-error';
+import { ExitCode } from './exit-codes';
+import type { InputFile } from './files';
+import { isInside } from './is-inside';
+import { isMissing } from './is-missing';
+import { listSideFileReferences } from './side-file-paths';
+
+/** One file to upload. */
+export interface UploadFile {
+  /** Relative to the root, forward slashes: the name the server and its reports use. */
+  uploadPath: string;
+  absolutePath: string;
+  byteLength: number;
+  /** SHA-256 of the content, lowercase hex. */
+  sha256: string;
+  /** Matched on the command line (an asset), rather than named by one as a side file. */
+  isAsset: boolean;
+}
+
+/**
+ * The upload's files in path order, side files included and each path once.
+ * @param warn receives one line per side file that is not uploaded (refused, missing), without prefix.
+ * @throws CliError (exit 2) `input.outside-root` for an asset outside `rootPath`, `input.path-invalid`
+ *   for a name the server cannot take, `input.unreadable` for a file that cannot be read.
+ */
+export async function collectUploadFiles(
+  assets: readonly InputFile[],
+  rootPath: string,
+  warn: (line: string) => void
+): Promise<UploadFile[]> {
+  const byUploadPath = new Map<string, { absolutePath: string; isAsset: boolean }>();
+  for (const asset of assets) {
+    const assetUploadPath = toUploadPath(rootPath, asset.absolutePath, asset.displayPath);
+    byUploadPath.set(assetUploadPath, { absolutePath: asset.absolutePath, isAsset: true });
+  }
+  for (const [assetUploadPath, { absolutePath }] of [...byUploadPath]) {
+    for (const sideFile of await findSideFiles(absolutePath, assetUploadPath, warn)) {
+      const uploadPath = toUploadPath(rootPath, sideFile, sideFile);
+      // A file both matched and named by another asset stays an asset.
+      if (!byUploadPath.has(uploadPath)) byUploadPath.set(uploadPath, { absolutePath: sideFile, isAsset: false });
+    }
+  }
+  const files: UploadFile[] = [];
+  const uploadPaths = [...byUploadPath.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+  for (const uploadPath of uploadPaths) {
+    const { absolutePath, isAsset } = byUploadPath.get(uploadPath)!;
+    files.push({ uploadPath, absolutePath, isAsset, ...(await measure(absolutePath, uploadPath)) });
+  }
+  return files;
+}
+
+/**
+ * The absolute paths of the side files an asset names that exist inside its folder: the URI
+ * is resolved against the folder, and its real path (symlinks followed) must stay inside the
+ * folder's real path, as `check` requires before reading one.
+ */
+async function findSideFiles(assetPath: string, assetUploadPath: string, warn: (line: string) => void) {
+  const folder = dirname(assetPath);
+  const realFolder = await realpath(folder);
+  const found: string[] = [];
+  for (const reference of await listSideFileReferences(assetPath)) {
+    const named = `${assetUploadPath}: ${reference.where}.uri "${reference.uri}"`;
+    if (reference.path === null) {
+      warn(`${named} ${reference.refusal}; not uploaded (the server will report the asset)`);
+      continue;
+    }
+    const candidate = resolve(folder, ...reference.path.split('/'));
+    let realCandidate: string;
+    try {
+      realCandidate = await realpath(candidate);
+    } catch (error) {
+      if (!isMissing(error)) throw unreadable(reference.path, error);
+      warn(`${named} names a file that does not exist; not uploaded (the server will report the asset)`);
+      continue;
+    }
+    if (!isInside(realFolder, realCandidate)) {
+      warn(`${named} resolves outside the asset's folder through a link; not uploaded`);
+      continue;
+    }
+    // Only regular files: a FIFO or device below the folder would block or stream forever.
+    if (!(await stat(realCandidate)).isFile()) {
+      warn(`${named} is not a regular file; not uploaded`);
+      continue;
+    }
+    found.push(candidate);
+  }
+  return found;
+}
+
+/** `absolutePath` relative to the root, with forward slashes, checked for what the server refuses. */
+function toUploadPath(rootPath: string, absolutePath: string, shownPath: string): string {
+  if (!isInside(rootPath, absolutePath)) {
+    throw new CliError(
+      'input.outside-root',
+      `${shownPath} is outside the root folder ${rootPath}; pass --root with a folder that holds every file`,
+      ExitCode.UsageError
+    );
+  }
+  const uploadPath = relative(rootPath, absolutePath).split(sep).join('/');
+  // The server refuses these in upload paths (backslashes are separators elsewhere; control
+  // characters cannot travel in a multipart header).
+  // eslint-disable-next-line no-control-regex -- control characters are what is refused
+  if (uploadPath.includes('\\') || /[\u0000-\u001f\u007f]/.test(uploadPath)) {
+    throw new CliError(
+      'input.path-invalid',
+      `${JSON.stringify(uploadPath)}: a file name with a backslash or control character cannot be uploaded; rename it`,
+      ExitCode.UsageError
+    );
+  }
+  return uploadPath;
+}
+
+/** Size and SHA-256 of a file, read as a stream. */
+async function measure(absolutePath: string, uploadPath: string): Promise<{ byteLength: number; sha256: string }> {
+  const hash = createHash('sha256');
+  let byteLength = 0;
+  try {
+    for await (const chunk of createReadStream(absolutePath)) {
+      hash.update(chunk as Buffer);
+      byteLength += (chunk as Buffer).length;
+    }
+  } catch (error) {
+    throw unreadable(uploadPath, error);
+  }
+  return { byteLength, sha256: hash.digest('hex') };
+}
+
+function unreadable(path: string, error: unknown): CliError {
+  const reason = (error as { code?: string }).code ?? (error as Error).message;
+  return new CliError('input.unreadable', `${path}: cannot read the file (${reason})`, ExitCode.UsageError, {
+    cause: error
+  });
+}
