@@ -13,12 +13,22 @@ export async function timeOnce(run: () => unknown): Promise<number> {
 /**
  * Median wall time in milliseconds over `runs` calls after `warmups` untimed ones, with a full GC
  * before each timed call (the process runs with --expose-gc) so collection of the previous run's
- * garbage is not billed to the next.
+ * garbage is not billed to the next. `setup` runs untimed before every call, to give each run
+ * fresh inputs (rules may cache per channel object, so reusing channels would time cache hits).
  */
-export async function medianMs(run: () => unknown, runs: number, warmups = 2): Promise<number> {
-  for (let index = 0; index < warmups; index++) await run();
+export async function medianMs(
+  run: () => unknown,
+  runs: number,
+  warmups = 2,
+  setup: () => unknown = () => undefined
+): Promise<number> {
+  for (let index = 0; index < warmups; index++) {
+    await setup();
+    await run();
+  }
   const times: number[] = [];
   for (let index = 0; index < runs; index++) {
+    await setup();
     collectGarbage();
     times.push(await timeOnce(run));
   }
