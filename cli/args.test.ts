@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { COMMANDS, parseCommandLine, POLICY_DOCS_PATH, type CheckOptions, type FixOptions } from './args';
+import {
+  COMMANDS,
+  parseCommandLine,
+  POLICY_DOCS_PATH,
+  type CheckOptions,
+  type FixOptions,
+  type SubmitOptions
+} from './args';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 import { formatCommandHelp, formatMainHelp } from './help';
@@ -22,6 +29,28 @@ const FIX_DEFAULTS: FixOptions = {
   isInPlace: false,
   isDebug: false
 };
+
+const SUBMIT_DEFAULTS: SubmitOptions = {
+  inputs: ['build'],
+  serverUrl: 'https://orientry.lanternfish.example/',
+  project: 'tidewatch',
+  rootPath: null,
+  commit: null,
+  branch: null,
+  label: null,
+  ciJobUrl: null,
+  idempotencyKey: null,
+  tokenFilePath: null,
+  format: 'text',
+  outputPath: null,
+  retries: 4,
+  retryDelaySeconds: 1,
+  timeoutSeconds: 600,
+  isProgressForced: false,
+  isDebug: false
+};
+
+const SUBMIT_REQUIRED = ['--server', 'https://orientry.lanternfish.example', '--project', 'tidewatch'];
 
 describe('parseCommandLine', () => {
   const accepted: { name: string; argv: string[]; expected: ReturnType<typeof parseCommandLine> }[] = [
@@ -106,6 +135,73 @@ describe('parseCommandLine', () => {
       name: 'fix --in-place without -o',
       argv: ['fix', 'hero.glb', '--in-place'],
       expected: { kind: 'fix', options: { ...FIX_DEFAULTS, inputPath: 'hero.glb', isInPlace: true } }
+    },
+    {
+      name: 'submit with the server and project only',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED],
+      expected: { kind: 'submit', options: SUBMIT_DEFAULTS }
+    },
+    {
+      name: 'submit with a server under a path prefix',
+      argv: ['submit', 'build', '--server', 'http://ci.example:8080/orientry', '--project', 'tidewatch'],
+      expected: { kind: 'submit', options: { ...SUBMIT_DEFAULTS, serverUrl: 'http://ci.example:8080/orientry' } }
+    },
+    {
+      name: 'submit with every option (an upper-case commit lowered)',
+      argv: [
+        'submit',
+        'chars',
+        'props/**/*.glb',
+        ...SUBMIT_REQUIRED,
+        '--root',
+        'export',
+        '--commit',
+        '3F2A9C1D',
+        '--branch',
+        'feature/lantern-arm',
+        '--label',
+        '#1482',
+        '--ci-job-url',
+        'https://ci.lanternfish.example/jobs/1482',
+        '--idempotency-key',
+        'tidewatch-1482',
+        '--token-file',
+        'secrets/orientry-token',
+        '--format',
+        'junit',
+        '-o',
+        'reports/orientry.xml',
+        '--retries',
+        '0',
+        '--retry-delay',
+        '0.25',
+        '--timeout',
+        '90',
+        '--progress',
+        '--debug'
+      ],
+      expected: {
+        kind: 'submit',
+        options: {
+          inputs: ['chars', 'props/**/*.glb'],
+          serverUrl: 'https://orientry.lanternfish.example/',
+          project: 'tidewatch',
+          rootPath: 'export',
+          commit: '3f2a9c1d',
+          branch: 'feature/lantern-arm',
+          label: '#1482',
+          ciJobUrl: 'https://ci.lanternfish.example/jobs/1482',
+          idempotencyKey: 'tidewatch-1482',
+          tokenFilePath: 'secrets/orientry-token',
+          format: 'junit',
+          outputPath: 'reports/orientry.xml',
+          retries: 0,
+          retryDelaySeconds: 0.25,
+          timeoutSeconds: 90,
+          isProgressForced: true,
+          isDebug: true
+        }
+      }
     }
   ];
 
@@ -169,6 +265,84 @@ describe('parseCommandLine', () => {
       argv: ['fix', 'a.glb', '-o', 'b.glb', '--rules', ' , '],
       code: 'args.invalid',
       mentions: '--rules'
+    },
+    {
+      name: 'submit without a server',
+      argv: ['submit', 'build', '--project', 'tidewatch'],
+      code: 'args.invalid',
+      mentions: '--server'
+    },
+    {
+      name: 'submit without a project',
+      argv: ['submit', 'build', '--server', 'https://orientry.example'],
+      code: 'args.invalid',
+      mentions: '--project'
+    },
+    {
+      name: 'submit without files',
+      argv: ['submit', ...SUBMIT_REQUIRED],
+      code: 'args.invalid',
+      mentions: 'at least one'
+    },
+    {
+      name: 'submit to a server that is not http(s)',
+      argv: ['submit', 'build', '--server', 'ftp://orientry.example', '--project', 'tidewatch'],
+      code: 'args.invalid',
+      mentions: '--server'
+    },
+    {
+      name: 'submit to a project slug with capitals',
+      argv: ['submit', 'build', '--server', 'https://orientry.example', '--project', 'Tidewatch'],
+      code: 'args.invalid',
+      mentions: '--project'
+    },
+    {
+      name: 'submit with a commit that is not hex',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--commit', 'HEAD'],
+      code: 'args.invalid',
+      mentions: '--commit'
+    },
+    {
+      name: 'submit with a negative retry count',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--retries', '-1'],
+      code: 'args.invalid',
+      mentions: '--retries'
+    },
+    {
+      name: 'submit with too many retries',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--retries', '50'],
+      code: 'args.invalid',
+      mentions: 'at most 20'
+    },
+    {
+      name: 'submit with a zero timeout',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--timeout', '0'],
+      code: 'args.invalid',
+      mentions: '--timeout'
+    },
+    {
+      name: 'submit with a job URL that is not a URL',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--ci-job-url', 'job 1482'],
+      code: 'args.invalid',
+      mentions: '--ci-job-url'
+    },
+    {
+      name: 'submit with a label holding a line break',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--label', 'a\nb'],
+      code: 'args.invalid',
+      mentions: 'control characters'
+    },
+    {
+      name: 'submit --output with the text format',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '-o', 'summary.txt'],
+      code: 'args.invalid',
+      mentions: '--output'
+    },
+    {
+      name: 'a token given as an option (tokens come from the environment)',
+      argv: ['submit', 'build', ...SUBMIT_REQUIRED, '--token', 'ort_secret'],
+      code: 'args.invalid',
+      mentions: '--token'
     },
     {
       name: 'a check-only option on fix',
