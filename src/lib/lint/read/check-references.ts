@@ -1,7 +1,7 @@
 /**
  * Cross-checks a shape-valid glTF JSON before @gltf-transform/core reads it: every index points
  * at something that exists, every accessor and buffer view lies inside the bytes actually present,
- * the node hierarchy is a forest (glTF 2.0 §3.5.3: no node has two parents, no cycles), and the
+ * the node hierarchy is a forest (glTF 2.0 §3.5.2, "Nodes and Hierarchy": no node has two parents, no cycles), and the
  * data the reader would allocate stays within a budget. @gltf-transform/core trusts these facts;
  * checking them here turns a crash, a silent short read or a gigabyte allocation into a clear error.
  */
@@ -190,7 +190,7 @@ export function checkReferences(input: ReferenceCheckInput): void {
     if (skin.inverseBindMatrices !== undefined) {
       requireIndex(skin.inverseBindMatrices, 'accessors', `${where}.inverseBindMatrices`);
       const matrices = json.accessors![skin.inverseBindMatrices];
-      // glTF 2.0 §3.7.3.1: one float MAT4 per joint.
+      // glTF 2.0 §3.7.3, "Skins": one float MAT4 inverse bind matrix per joint.
       if (matrices.type !== 'MAT4' || matrices.count < skin.joints.length) {
         throw invalid(
           `${where}.inverseBindMatrices`,
@@ -220,7 +220,7 @@ export function checkReferences(input: ReferenceCheckInput): void {
 
 type RequireIndex = (value: number | undefined, kind: 'nodes' | 'meshes' | 'skins' | 'cameras', where: string) => void;
 
-/** glTF 2.0 §3.5.3: nodes form disjoint trees, so each node has at most one parent and no cycle exists. */
+/** glTF 2.0 §3.5.2, "Nodes and Hierarchy": nodes form disjoint trees, so each node has at most one parent and no cycle exists. */
 function checkNodes(json: GltfJson, requireIndex: RequireIndex, invalid: (where: string, what: string) => Error) {
   const nodes = json.nodes ?? [];
   const parents = new Int32Array(nodes.length).fill(-1);

@@ -15,7 +15,7 @@
  */
 import type { TypedArray } from '@gltf-transform/core';
 
-/** glTF componentType enums (glTF 2.0 §3.6.2.2). */
+/** glTF componentType enums (glTF 2.0 §3.6.2, "Accessors"). */
 export const ComponentType = {
   BYTE: 5120,
   UNSIGNED_BYTE: 5121,

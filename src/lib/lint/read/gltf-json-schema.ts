@@ -10,11 +10,11 @@ const index = z.number().int().nonnegative();
 const byteOffset = z.number().int().nonnegative().optional();
 const extensions = z.record(z.string(), z.unknown()).optional();
 
-/** Accessor element types (glTF 2.0 §3.6.2.1) and their component counts. */
+/** Accessor element types (glTF 2.0 §3.6.2, "Accessors") and their component counts. */
 export const COMPONENTS_PER_ELEMENT = { SCALAR: 1, VEC2: 2, VEC3: 3, VEC4: 4, MAT2: 4, MAT3: 9, MAT4: 16 } as const;
 
 /**
- * Bytes per component by componentType (glTF 2.0 §3.6.2.2), plus half and double floats
+ * Bytes per component by componentType (glTF 2.0 §3.6.2, "Accessors"), plus half and double floats
  * from KHR_accessor_float16 / KHR_accessor_float64.
  */
 export const COMPONENT_BYTE_SIZE: Readonly<Record<number, number>> = {

@@ -1,6 +1,6 @@
 /**
  * Splits a main file into its glTF JSON and, for GLB, its binary chunk, checking every length
- * against the bytes actually present before touching them (glTF 2.0 §4.4 GLB file format).
+ * against the bytes actually present before touching them (glTF 2.0 §4, "GLB File Format Specification").
  * Detection is by content, not by file extension: a `.gltf` holding GLB bytes reads as GLB.
  */
 import { AssetReadError } from '../asset-read-error';
@@ -13,7 +13,7 @@ export interface ParsedContainer {
   isGlb: boolean;
 }
 
-// glTF 2.0 §4.4: header magic "glTF", chunk types "JSON" and "BIN\0", all little-endian uint32.
+// glTF 2.0 §4 (GLB): header magic "glTF", chunk types "JSON" and "BIN\0", all little-endian uint32.
 const GLB_MAGIC = 0x46546c67;
 const CHUNK_JSON = 0x4e4f534a;
 const CHUNK_BIN = 0x004e4942;
@@ -73,9 +73,12 @@ function parseGlb(bytes: Uint8Array, view: DataView, path: string): ParsedContai
       hint
     );
   }
-  const json = parseJsonText(bytes, path, jsonStart, jsonStart + jsonByteLength);
+  // glTF 2.0 §4, "Structured JSON Content": padding is spaces; some exporters pad with NUL, which JSON.parse rejects.
+  let jsonEnd = jsonStart + jsonByteLength;
+  while (jsonEnd > jsonStart && bytes[jsonEnd - 1] === 0) jsonEnd--;
+  const json = parseJsonText(bytes, path, jsonStart, jsonEnd);
 
-  // §4.4.3: chunks after JSON; the first BIN chunk holds buffer 0, unknown chunks are skipped.
+  // glTF 2.0 §4, "Chunks": after JSON, the first BIN chunk holds buffer 0; unknown chunks are skipped.
   let offset = jsonStart + jsonByteLength;
   while (offset + CHUNK_HEADER_BYTE_LENGTH <= end) {
     const chunkByteLength = view.getUint32(offset, true);

@@ -173,6 +173,29 @@ describe('readAssetDocument: damaged and hostile files', () => {
     expect(readRotationChannels(document)).toHaveLength(1);
   });
 
+  it('reads a GLB whose JSON chunk is padded with NUL bytes instead of spaces', async () => {
+    const glb = await writeGlb(buoyDocument());
+    const view = new DataView(glb.buffer, glb.byteOffset);
+    const jsonLength = view.getUint32(12, true);
+    const jsonText = new TextDecoder().decode(glb.subarray(20, 20 + jsonLength)).trimEnd();
+    const json = new TextEncoder().encode(jsonText);
+    const paddedLength = Math.ceil((json.byteLength + 1) / 4) * 4; // at least one NUL
+    const rest = glb.subarray(20 + jsonLength); // the BIN chunk, header included
+    // glTF 2.0 §4 (GLB): 12-byte header, then the JSON chunk (length, type "JSON", data), then the rest.
+    const rebuilt = new Uint8Array(20 + paddedLength + rest.byteLength);
+    const out = new DataView(rebuilt.buffer);
+    out.setUint32(0, 0x46546c67, true);
+    out.setUint32(4, 2, true);
+    out.setUint32(8, rebuilt.byteLength, true);
+    out.setUint32(12, paddedLength, true);
+    out.setUint32(16, 0x4e4f534a, true);
+    rebuilt.set(json, 20);
+    rebuilt.set(rest, 20 + paddedLength);
+    expect(rebuilt[20 + paddedLength - 1]).toBe(0);
+    const document = await readAssetDocument(sourceFromBytes('buoy.glb', rebuilt));
+    expect(readRotationChannels(document)).toHaveLength(1);
+  });
+
   it('rejects an empty file', async () => {
     await expectReadError(sourceFromBytes('buoy.glb', new Uint8Array(0)), 'asset.empty');
   });

@@ -40,7 +40,7 @@ export function readAssetFacts(document: Document): AssetFacts {
       const matrices = skin.getInverseBindMatrices()?.getArray() ?? null;
       const inverseBindDeterminants = new Float64Array(joints.length);
       for (let jointIndex = 0; jointIndex < joints.length; jointIndex++) {
-        // glTF 2.0 §3.7.3.1: without inverseBindMatrices every matrix is identity (determinant 1).
+        // glTF 2.0 §3.7.3, "Skins": without inverseBindMatrices every matrix is identity (determinant 1).
         // A too-short accessor (only possible in a Document built in code) gives NaN, not a guess.
         if (!matrices) inverseBindDeterminants[jointIndex] = 1;
         else if ((jointIndex + 1) * 16 > matrices.length) inverseBindDeterminants[jointIndex] = NaN;
@@ -59,7 +59,7 @@ export function readAssetFacts(document: Document): AssetFacts {
 /**
  * The rotation as the file stored it. Nodes read from a file answer from the record taken at read
  * time (null for `matrix` or no rotation). Nodes built in code, or changed since, report their
- * rotation unless it is exactly the identity default (glTF 2.0 §3.5.2).
+ * rotation unless it is exactly the identity default (glTF 2.0 §3.5.3, "Transformations").
  */
 function storedRotationOf(node: Node): [number, number, number, number] | null {
   const kind = getStoredRotationKind(node);
@@ -75,7 +75,7 @@ function identity(): Float64Array {
   return matrix;
 }
 
-/** out = a × b for column-major 4x4 matrices (glTF 2.0 §3.5.3: world = parent world × local). */
+/** out = a × b for column-major 4x4 matrices (glTF 2.0 §3.5.3, "Transformations": a node's world matrix is its parent's times its local one). */
 function multiply(out: Float64Array, a: ArrayLike<number>, b: ArrayLike<number>): void {
   for (let column = 0; column < 4; column++) {
     for (let row = 0; row < 4; row++) {
