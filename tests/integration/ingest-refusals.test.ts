@@ -305,3 +305,28 @@ describe('the framework in front of the route', () => {
     expect(await countBuildRows(server.database)).toEqual(rowsBefore);
   });
 });
+
+describe('a server started without BODY_SIZE_LIMIT', () => {
+  let defaultServer: ApiTestServer;
+  beforeAll(async () => {
+    // adapter-node's own default is 512K; start scripts must raise it (see the API notes).
+    defaultServer = await startApiTestServer({ BODY_SIZE_LIMIT: '512K' });
+  });
+  afterAll(async () => defaultServer?.remove());
+
+  it('answers 413 naming BODY_SIZE_LIMIT for an upload over 512 KiB', async () => {
+    // The models follow the database opened last, which is this server's.
+    const { secret: tokenSecret } = await seedProject('tidewatch');
+    const files = [...asset(), { path: 'textures/reef.png', bytes: new Uint8Array(600 * 1024) }];
+    const response = await postBuild(defaultServer, 'tidewatch', tokenSecret, files);
+    const body = (await response.json()) as { error: { code: string; message: string } };
+    expect([response.status, body.error.code]).toEqual([413, 'limit.body-bytes']);
+    expect(body.error.message).toContain('BODY_SIZE_LIMIT');
+    expect(await countBuildRows(defaultServer.database)).toEqual({
+      builds: 0,
+      assets: 0,
+      findings: 0,
+      asset_side_files: 0
+    });
+  });
+});
