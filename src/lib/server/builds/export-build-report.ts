@@ -17,6 +17,7 @@ export const REPORT_FORMATS = {
   junit: { extension: 'xml', contentType: 'application/xml; charset=utf-8', write: toJunitXml }
 } as const;
 
+/** A format name: `json`, `sarif` or `junit`. */
 export type ReportFormat = keyof typeof REPORT_FORMATS;
 
 /** True for a format name the export knows. */

@@ -17,6 +17,7 @@ export const listBuildsQuerySchema = z
   })
   .strict();
 
+/** The parsed build-list query, defaults filled. */
 export type ListBuildsQuery = z.output<typeof listBuildsQuerySchema>;
 
 /** One page of builds. */

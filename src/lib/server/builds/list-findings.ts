@@ -12,6 +12,7 @@ import { findingOf } from './finding-columns';
 
 /** A finding's standing as filters and lists show it. */
 export const FINDING_STANDINGS = ['new', 'unchanged', 'fixed', 'waived'] as const;
+/** One of {@link FINDING_STANDINGS}. */
 export type FindingStanding = (typeof FINDING_STANDINGS)[number];
 
 /** Query parameters of the finding list. */
@@ -27,6 +28,7 @@ export const listFindingsQuerySchema = z
   })
   .strict();
 
+/** The parsed finding-list query, defaults filled. */
 export type ListFindingsQuery = z.output<typeof listFindingsQuerySchema>;
 
 /** A stored finding as the API shows it. */

@@ -27,6 +27,7 @@ export const trendQuerySchema = z
   })
   .strict();
 
+/** The parsed trend query. */
 export type TrendQuery = z.output<typeof trendQuerySchema>;
 
 /** One build of the trend. */

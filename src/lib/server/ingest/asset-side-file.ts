@@ -14,6 +14,7 @@ import {
 import { getDatabase } from '../db/instance';
 import { Asset } from '../db/models';
 
+/** A row of `asset_side_files`. */
 export class AssetSideFile extends Model<InferAttributes<AssetSideFile>, InferCreationAttributes<AssetSideFile>> {
   declare id: CreationOptional<number>;
   declare assetId: number;

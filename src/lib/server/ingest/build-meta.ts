@@ -39,6 +39,7 @@ export const buildMetaSchema = z
   })
   .strict();
 
+/** The validated `meta` part. */
 export type BuildMeta = z.infer<typeof buildMetaSchema>;
 
 /**

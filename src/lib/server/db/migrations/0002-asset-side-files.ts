@@ -7,6 +7,7 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
 import { checked } from './column-types';
 
+/** Name recorded in the migration table once applied. */
 export const name = '0002-asset-side-files';
 
 /** Creates `asset_side_files`, one row per (asset, side-file path). */

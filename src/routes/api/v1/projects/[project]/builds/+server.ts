@@ -17,6 +17,7 @@ import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
 import type { RequestHandler } from './$types';
 
+/** Ingests a build from CI (token-authorized). */
 export const POST: RequestHandler = apiHandler(async ({ params, request, url }) => {
   const project = await Project.findOne({ where: { slug: params.project } });
   if (!project) {
@@ -28,6 +29,7 @@ export const POST: RequestHandler = apiHandler(async ({ params, request, url }) 
   return json({ build: summarizeBuild(build, project.slug, url.origin) }, { status: isExisting ? 200 : 201 });
 });
 
+/** Lists the project's builds, paged. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'viewer');
   const query = parseQuery(event.url.searchParams, listBuildsQuerySchema);

@@ -15,11 +15,13 @@ const createTokenSchema = z
   .object({ name: z.string().trim().min(1, 'must not be empty').max(100, 'must be at most 100 characters') })
   .strict();
 
+/** The project's tokens, without secrets. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'lead');
   return json({ tokens: await apiTokens.list(project.id) });
 });
 
+/** Creates a token and shows its secret once. */
 export const POST: RequestHandler = apiHandler(async (event) => {
   const { project, user } = await requireApiMember(event, event.params.project, 'lead');
   const { name } = await parseJsonBody(event.request, createTokenSchema);

@@ -10,6 +10,7 @@ import { parseQuery } from '$lib/server/ingest/parse-query';
 import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import type { RequestHandler } from './$types';
 
+/** The trend of one branch. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'viewer');
   return json(await listTrend(project, parseQuery(event.url.searchParams, trendQuerySchema)));

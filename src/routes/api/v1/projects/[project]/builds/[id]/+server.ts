@@ -6,6 +6,7 @@ import { apiHandler } from '$lib/server/ingest/api-handler';
 import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import type { RequestHandler } from './$types';
 
+/** The build with its assets. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'viewer');
   const build = await getProjectBuild(project.id, event.params.id);

@@ -7,6 +7,7 @@ import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
 import type { RequestHandler } from './$types';
 
+/** Revokes the token. */
 export const DELETE: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'lead');
   const tokenId = parseId(event.params.id);

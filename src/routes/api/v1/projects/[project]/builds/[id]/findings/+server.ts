@@ -10,6 +10,7 @@ import { parseQuery } from '$lib/server/ingest/parse-query';
 import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import type { RequestHandler } from './$types';
 
+/** A page of the build's findings. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { project } = await requireApiMember(event, event.params.project, 'viewer');
   const build = await getProjectBuild(project.id, event.params.id);

@@ -9,6 +9,7 @@ import { apiHandler } from '$lib/server/ingest/api-handler';
 import { requireApiMember } from '$lib/server/ingest/require-api-member';
 import type { RequestHandler } from './$types';
 
+/** The build's report file in the named format. */
 export const GET: RequestHandler = apiHandler(async (event) => {
   const { format } = event.params;
   if (!isReportFormat(format)) {
