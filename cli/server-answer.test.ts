@@ -87,6 +87,15 @@ describe('outcomeOfFailure', () => {
     });
   }
 
+  it('explains a refused cross-site post by the address the server knows itself by', async () => {
+    const response = new Response(JSON.stringify({ message: 'Cross-site POST form submissions are forbidden' }), {
+      status: 403
+    });
+    const failure = (await outcomeOfFailure(response, 'the upload').catch((error: unknown) => error)) as CliError;
+    expect(failure.exitCode).toBe(ExitCode.ServerUnreachable);
+    expect(failure.message).toContain('(its ORIGIN)');
+  });
+
   it('ends with exit 3 on a redirect, naming where to point --server', async () => {
     const response = new Response(null, { status: 308, headers: { location: 'https://orientry.example/' } });
     const failure = (await outcomeOfFailure(response, 'the upload').catch((error: unknown) => error)) as CliError;

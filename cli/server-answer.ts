@@ -80,9 +80,14 @@ export function refusalOf(error: ServerError, action: string, location: string |
     );
   }
   const exitCode = error.status === 400 ? ExitCode.UsageError : ExitCode.ServerUnreachable;
+  // The framework refuses a form post whose Origin is not the address the server is configured with.
+  const hint =
+    error.status === 403 && /cross-site/i.test(error.message)
+      ? '; pass as --server the public address the server is configured with (its ORIGIN)'
+      : '';
   return new CliError(
     error.code,
-    `the server refused ${action} (HTTP ${error.status} ${error.code}): ${error.message}`,
+    `the server refused ${action} (HTTP ${error.status} ${error.code}): ${error.message}${hint}`,
     exitCode
   );
 }

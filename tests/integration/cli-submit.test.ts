@@ -161,6 +161,25 @@ describe('orientry submit', () => {
     expect(sarif.runs[0].results.map((result) => result.ruleId)).toContain('hemisphere-jump');
   });
 
+  it('writes the JSON report to stdout and the summary to stderr without --output', async () => {
+    const run = await submit([
+      'clean',
+      '--root',
+      'clean',
+      '--commit',
+      'aaaa1111',
+      '--branch',
+      'main',
+      '--format',
+      'json'
+    ]);
+    expect(run.status, run.stderr).toBe(0);
+    const report = JSON.parse(run.stdout) as { schema: string; assets: { path: string }[] };
+    expect(report.schema).toBe('orientry.lint-report');
+    expect(report.assets.map((asset) => asset.path)).toEqual(['keeper/keeper.gltf', 'props/buoy.glb']);
+    expect(run.stderr).toContain('gate passed');
+  });
+
   it('reports the findings as fixed when a later build no longer has them', async () => {
     // Main gets the flip first (failing), so the fix below is compared with a baseline that has it.
     const broken = await submit(['flipped', '--root', 'flipped', '--commit', 'cccc3333', '--branch', 'main']);
