@@ -67,11 +67,20 @@ export async function startApiTestServer(env: Record<string, string> = {}): Prom
     DATA_DIR: dataDir,
     DATABASE_URL: `sqlite:${storage}`
   };
+  let child: ChildProcess;
+  try {
+    child = await launch(buildDir, serverEnv, url, output);
+  } catch (error) {
+    await database.sequelize.close();
+    fs.rmSync(dataDir, { recursive: true, force: true });
+    fs.rmSync(buildDir, { recursive: true, force: true });
+    throw error;
+  }
   const server: ApiTestServer = {
     url,
     dataDir,
     database,
-    child: await launch(buildDir, serverEnv, url, output),
+    child,
     output,
     async stop() {
       await stopChild(server.child);
