@@ -29,6 +29,7 @@ export interface MultipartFile {
   contentType?: string;
 }
 
+/** One part of the body, in the order it is sent. */
 export type MultipartPart = MultipartField | MultipartFile;
 
 /** A body that can be streamed as often as an upload is attempted. */
