@@ -31,7 +31,8 @@ export function snapshotBuild() {
 export async function startServer({ env, url, buildDir = path.join(ROOT, 'build'), timeoutMs = 60_000 }) {
   const child = spawn(process.execPath, [buildDir], {
     cwd: ROOT,
-    env: { NODE_ENV: 'production', ...env },
+    // adapter-node caps request bodies at 512 KiB by default; uploads are limited by Orientry itself.
+    env: { NODE_ENV: 'production', BODY_SIZE_LIMIT: 'Infinity', ...env },
     stdio: 'inherit'
   });
   let exited = null;

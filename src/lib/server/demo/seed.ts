@@ -2,6 +2,7 @@ import { parsePolicy, policyVersionOf } from '../../lint/policy';
 import { hashPassword } from '../auth/password';
 import { Project, ProjectMembership, ProjectPolicy, User } from '../db/models';
 import * as apiTokens from '../tokens/api-tokens';
+import { getDemoPolicy, type DemoProjectSlug } from './assets';
 import { DEMO_ACCOUNTS, DEMO_PROJECTS, type DemoAccount } from './demo-accounts';
 
 /** A demo project's CI token, to print and to post the build history with. */
@@ -43,7 +44,8 @@ export async function seedDemo(): Promise<DemoSeed> {
       if (!user) throw new Error(`Demo project ${demo.slug} lists ${email}, who is not a demo account.`);
       await ProjectMembership.create({ projectId: project.id, userId: user.id, role });
     }
-    const policy = parsePolicy(demo.policy);
+    // The story's rule overrides on top of the project's base policy: the gate stops the builds it should.
+    const policy = parsePolicy(getDemoPolicy(demo.slug as DemoProjectSlug));
     await ProjectPolicy.create({
       projectId: project.id,
       revision: 1,

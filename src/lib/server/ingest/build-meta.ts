@@ -5,6 +5,9 @@
 import { z } from 'zod';
 import { ApiError } from './api-error';
 
+/** Clock difference tolerated between a CI machine and the server. */
+const FUTURE_SLACK_MS = 5 * 60_000;
+
 /** Printable text without control characters, trimmed. */
 const text = (max: number) =>
   z
@@ -35,7 +38,17 @@ export const buildMetaSchema = z
       .max(2000)
       .nullish(),
     /** Any client-chosen key: a repeated upload with the same key answers the first build. */
-    idempotencyKey: text(200).nullish()
+    idempotencyKey: text(200).nullish(),
+    /**
+     * When CI built it (ISO 8601 with an offset); defaults to the time the upload arrives.
+     * Lets an importer replay past builds in order so baselines and trends follow build time.
+     * At most five minutes ahead of the server's clock.
+     */
+    builtAt: z.iso
+      .datetime({ offset: true, error: 'must be an ISO 8601 time such as 2026-05-01T12:00:00Z' })
+      .transform((value) => new Date(value))
+      .refine((date) => date.getTime() <= Date.now() + FUTURE_SLACK_MS, 'must not be in the future')
+      .nullish()
   })
   .strict();
 

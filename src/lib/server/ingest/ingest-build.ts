@@ -58,7 +58,8 @@ export async function ingestBuild(project: Project, request: Request, origin: st
     const linted = await lintUpload(upload.files, filesFolder, policy, policyVersion);
     const checked = linted.filter((asset) => !asset.report.skipped);
 
-    const baseline = await findBaselineBuild(project);
+    const builtAt = meta.builtAt ?? new Date();
+    const baseline = await findBaselineBuild(project, builtAt);
     const baselineFindings = baseline
       ? (
           await FindingRecord.findAll({
@@ -73,7 +74,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       baselineFindings,
       waivers,
       policy,
-      new Date()
+      builtAt
     );
 
     // Blobs go first: a stored build must never point at a missing blob, while a blob no build
@@ -90,7 +91,8 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       baselineBuildId: baseline?.id ?? null,
       policyVersion,
       engineVersion: ENGINE_VERSION,
-      durationMs: Date.now() - startedAtMs
+      durationMs: Date.now() - startedAtMs,
+      createdAt: builtAt
     };
     try {
       const build = await writeBuild(project, row, plan, checked, origin);
@@ -118,6 +120,7 @@ type BuildRow = Pick<
   | 'policyVersion'
   | 'engineVersion'
   | 'durationMs'
+  | 'createdAt'
 >;
 
 /** Writes the build, its assets, their side files and findings, and runs the hooks, in one transaction. */
