@@ -49,9 +49,21 @@ export const policySchema = z
     convention: z
       .object({
         /** Assets must be authored in glTF's own basis (right-handed, +Y up, front +Z; spec §3.4). */
-        requireGltfBasis: z.boolean().default(true)
+        requireGltfBasis: z.boolean().default(true),
+        /**
+         * baked-basis: how close (rotation angle, degrees) a root's rest rotation must be to an exact
+         * quarter or half turn about X, Y or Z to count as a baked basis correction. Exporters write
+         * such turns exactly, so 0.5° only absorbs float rounding.
+         */
+        basisToleranceDegrees: z.number().min(0).max(45).default(0.5),
+        /**
+         * clip-basis-offset: how far (rotation angle, degrees) each key of a root channel may stray
+         * from one quarter or half turn away from the rest rotation. 20° leaves room for a root's
+         * own sway while a real 90° offset still stands out.
+         */
+        clipOffsetToleranceDegrees: z.number().min(0).max(45).default(20)
       })
-      .default({ requireGltfBasis: true }),
+      .default({ requireGltfBasis: true, basisToleranceDegrees: 0.5, clipOffsetToleranceDegrees: 20 }),
     engine: z
       .object({
         /** How the target engine stores rotation curves. */
