@@ -55,8 +55,8 @@ function checkAntipodalKeys(channel: RotationChannel, context: RuleContext): voi
           `${formatNumber(-range.worstScore, 2)} from −q${k}, tolerance ${formatNumber(tolerance)})` +
           `${range.flaggedCount > 1 ? `, and ${range.flaggedCount - 1} more such pairs follow` : ''}. ${why}`,
         hint:
-          'Run `orientry fix` (break antipodal keys), or negate the later key (and the keys after it) so both keys ' +
-          'are written with the same sign.',
+          'Run `orientry fix <file> -o <fixed file> --rules antipodal-keys` (break antipodal keys), or negate the ' +
+          'later key (and the keys after it) so both keys are written with the same sign.',
         severity
       })
     );

@@ -65,8 +65,9 @@ function checkBakedBasis(facts: AssetFacts, _channels: readonly RotationChannel[
         'converted: engines that strip or re-root the top node, root motion and retargeting see it lying on its ' +
         'side or facing the wrong way.',
       hint:
-        'Run `orientry fix` (remove baked basis) to apply the turn to the content and reset this node to identity, ' +
-        'or export with the tool\u2019s Y-up conversion applied to the data rather than added as a parent rotation.',
+        'Run `orientry fix <file> -o <fixed file> --rules baked-basis` (remove baked basis): it folds the turn into ' +
+        'the content, keys and inverse bind matrices and leaves this node without it. Or export with the ' +
+        'tool\u2019s Y-up conversion applied to the data rather than added as a parent rotation.',
       target: 'rest'
     });
   }

@@ -115,8 +115,8 @@ function report(
       'plays turned against the bind pose, and blending or retargeting it with clips that lack the offset tips ' +
       'the character over.',
     hint:
-      'Export the clip with the same axis settings as the rig, or take the turn out of its keys. If the rest ' +
-      'rotation is the one that carries a conversion, baked-basis reports it and `orientry fix` can remove it.',
+      'Export the clip with the same axis settings as the rig, or run `orientry fix <file> -o <fixed file> --rules ' +
+      'clip-basis-offset`, which takes the turn out of the keys so the clip plays in the rig\u2019s orientation.',
     target: 'rotation:basis'
   });
 }

@@ -54,8 +54,8 @@ function checkHemisphereJump(channel: RotationChannel, context: RuleContext): vo
           `hemisphere; key ${k + 1} is nearer the negation of key ${k} than key ${k} itself (normalized dot ` +
           `${formatNumber(-range.worstScore, 3)}). Both are the same pose, but the curve between them is not. ${why}`,
         hint:
-          'Run `orientry fix` (unflip hemispheres): it negates keys (and their tangents) so each key lies in the ' +
-          'same hemisphere as the one before, which leaves every pose unchanged.',
+          'Run `orientry fix <file> -o <fixed file> --rules hemisphere-jump` (unflip hemispheres): it negates keys ' +
+          '(and their tangents) so each key lies in the same hemisphere as the one before, which changes no pose.',
         severity
       })
     );

@@ -71,7 +71,7 @@ function checkSplineDip(channel: RotationChannel, context: RuleContext): void {
           'visible wobbles, and at zero length it is no rotation at all.',
         hint:
           'Re-export with tangents that follow the curve, or export the clip as LINEAR. If the keys also change ' +
-          'hemisphere, unflip them first (`orientry fix`).'
+          'hemisphere, unflip them first (`orientry fix <file> -o <fixed file> --rules hemisphere-jump`).'
       })
     );
   });

@@ -21,8 +21,8 @@ import { KeyRangeCollector } from './key-ranges';
 import { lengthSquaredAt } from '../math/flat-keys';
 
 const HINT =
-  'Run `orientry fix` (renormalize) to scale each quaternion back to length 1, or normalize rotations in the ' +
-  'exporter before it writes them.';
+  'Run `orientry fix <file> -o <fixed file> --rules unit-drift` (renormalize) to scale each quaternion back to ' +
+  'length 1, or normalize rotations in the exporter before it writes them.';
 
 export const unitDrift: AssetRule = {
   id: 'unit-drift',
