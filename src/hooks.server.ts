@@ -8,6 +8,8 @@ import { signInRequiredHandle } from '$lib/server/auth/sign-in-required-handle';
 import { userHandle } from '$lib/server/auth/user-handle';
 import { closeDatabase } from '$lib/server/db/instance';
 import { ConfigError } from '$lib/server/errors';
+import { allowMailLinkPaths } from '$lib/server/mail/mail-link-paths';
+import { startMailService, stopMailService } from '$lib/server/mail/mail-service';
 import { prepareServer } from '$lib/server/startup';
 
 /**
@@ -20,8 +22,16 @@ export const init: ServerInit = async () => {
   try {
     const applied = await prepareServer();
     if (applied.length > 0) console.log(`Orientry: applied database migrations ${applied.join(', ')}`);
-    // adapter-node emits this on SIGTERM/SIGINT once requests have drained: close SQLite cleanly.
-    process.once('sveltekit:shutdown', () => void closeDatabase().catch((error) => console.error(error)));
+    const mail = await startMailService();
+    console.log(`Orientry mail: ${mail.description}`);
+    // adapter-node emits this on SIGTERM/SIGINT once requests have drained: stop mail, close SQLite cleanly.
+    process.once(
+      'sveltekit:shutdown',
+      () =>
+        void stopMailService()
+          .then(closeDatabase)
+          .catch((error) => console.error(error))
+    );
   } catch (error) {
     if (error instanceof ConfigError && !dev) {
       console.error(error.message);
@@ -32,13 +42,13 @@ export const init: ServerInit = async () => {
   }
 };
 
-/** Cookie defaults, rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall. */
+/** Cookie defaults, rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall (mail links pass). */
 export const handle: Handle = sequence(
   cookieDefaultsHandle,
   credentialsCallbackGuard,
   authHandle,
   userHandle,
-  signInRequiredHandle
+  allowMailLinkPaths(signInRequiredHandle)
 );
 
 /**
