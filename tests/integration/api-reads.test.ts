@@ -3,7 +3,7 @@
  * build lists, build detail, findings, channel plots, trends, report downloads and tokens.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ApiToken } from '$lib/server/db/models';
+import { ApiToken, FindingRecord, Waiver } from '$lib/server/db/models';
 import { aboutY, diverGlb, diverGltf } from './api-fixtures';
 import {
   postBuild,
@@ -18,6 +18,7 @@ import {
 
 let server: ApiTestServer;
 let secret: string;
+let harbourSecret: string;
 let lead: SeededUser;
 let viewer: SeededUser;
 let leadCookie: string;
@@ -45,7 +46,7 @@ beforeAll(async () => {
     { user: lead, role: 'lead' },
     { user: viewer, role: 'viewer' }
   ]));
-  await seedProject('harbour-props', [{ user: outsider, role: 'lead' }]);
+  ({ secret: harbourSecret } = await seedProject('harbour-props', [{ user: outsider, role: 'lead' }]));
   [leadCookie, viewerCookie, outsiderCookie, adminCookie] = await Promise.all(
     [lead, viewer, outsider, admin].map((user) => signIn(server, user))
   );
@@ -381,5 +382,135 @@ describe('tokens', () => {
     const refused = await postBuild(server, 'tidewatch', token.secret, await files('none'), { branch: 'main' });
     await expectError(refused, 403, 'auth.token-revoked');
     await expectError(await send('DELETE', 'tidewatch/tokens/999999', leadCookie), 404, 'token.not-found');
+  });
+});
+
+describe('GET builds/{id}/report.{format} with the project API token', () => {
+  let harbourBuildId: number;
+  let waivedBuildId: number;
+  let waiverId: number;
+
+  const bearer = (token: string) => ({ authorization: `Bearer ${token}` });
+  const getReport = (path: string, headers: Record<string, string>) =>
+    fetch(`${server.url}/api/v1/projects/${path}`, { headers });
+
+  beforeAll(async () => {
+    const harbour = await postBuild(server, 'harbour-props', harbourSecret, await files('none'), { branch: 'main' });
+    harbourBuildId = ((await harbour.json()) as { build: { id: number } }).build.id;
+    // A lead waives the zero key of the feature build; the next build with it stores the waiver.
+    const [finding] = await FindingRecord.findAll({ where: { buildId: buildIds[1] } });
+    const waiver = await Waiver.create({
+      projectId: await projectIdOf('tidewatch'),
+      scope: 'fingerprint',
+      fingerprint: finding.fingerprint,
+      rule: null,
+      assetPath: null,
+      reason: 'The swim cycle is re-exported next sprint.',
+      expiresAt: new Date('2099-01-01T00:00:00Z'),
+      status: 'approved',
+      proposedById: null
+    });
+    waiverId = waiver.id;
+    const waived = await postBuild(server, 'tidewatch', secret, await files('zero-key'), { branch: 'feature/waived' });
+    waivedBuildId = ((await waived.json()) as { build: { id: number } }).build.id;
+  });
+
+  async function projectIdOf(slug: string): Promise<number> {
+    const [rows] = await server.database.sequelize.query('SELECT id FROM projects WHERE slug = ?', {
+      replacements: [slug]
+    });
+    return (rows as { id: number }[])[0].id;
+  }
+
+  it.each(['json', 'sarif', 'junit'])("gives the %s report to the token of the build's project", async (format) => {
+    const response = await getReport(`tidewatch/builds/${buildIds[2]}/report.${format}`, bearer(secret));
+    expect(response.status, await response.clone().text()).toBe(200);
+    expect(await response.text()).toContain('key-times');
+  });
+
+  it("puts the build, its verdict and each result's baseline state into the SARIF run", async () => {
+    const response = await getReport(`tidewatch/builds/${buildIds[2]}/report.sarif`, bearer(secret));
+    const sarif = (await response.json()) as {
+      runs: {
+        results: { ruleId: string; baselineState: string; suppressions?: unknown[] }[];
+        properties: { build: { id: number; verdict: string; baselineBuildId: number; reportUrl: string } };
+      }[];
+    };
+    const [run] = sarif.runs;
+    expect(run.properties.build).toMatchObject({
+      id: buildIds[2],
+      verdict: 'fail',
+      baselineBuildId: buildIds[0],
+      reportUrl: `${server.url}/projects/tidewatch/builds/${buildIds[2]}`
+    });
+    // SARIF 2.1.0 result.baselineState: "new" for a result absent from the baseline run.
+    expect(run.results.map((result) => [result.ruleId, result.baselineState, result.suppressions])).toEqual([
+      ['key-times', 'new', undefined]
+    ]);
+  });
+
+  it("adds the build and each finding's baseline status and waiver to the JSON report", async () => {
+    // The latest main build (#4) is clean, so the zero key is new; the waiver covers it.
+    const response = await getReport(`tidewatch/builds/${waivedBuildId}/report.json`, bearer(secret));
+    const report = (await response.json()) as {
+      build: { id: number; verdict: string; counts: { waived: number } };
+      assets: { findings: { rule: string; baselineStatus: string; waiver: { id: number; reason: string } | null }[] }[];
+    };
+    expect(report.build).toMatchObject({ id: waivedBuildId, verdict: 'pass', counts: { waived: 1 } });
+    const findings = report.assets.flatMap((asset) => asset.findings);
+    expect(findings.map((finding) => [finding.rule, finding.baselineStatus, finding.waiver?.id])).toEqual([
+      ['not-a-rotation', 'new', waiverId]
+    ]);
+    expect(findings[0].waiver?.reason).toBe('The swim cycle is re-exported next sprint.');
+  });
+
+  it('turns a waived finding into an accepted external suppression in SARIF', async () => {
+    const response = await getReport(`tidewatch/builds/${waivedBuildId}/report.sarif`, bearer(secret));
+    const sarif = (await response.json()) as {
+      runs: { results: { suppressions?: { kind: string; status: string; justification: string }[] }[] }[];
+    };
+    // SARIF 2.1.0 suppression object: kind "external" (kept outside the files), status "accepted".
+    expect(sarif.runs[0].results[0].suppressions).toEqual([
+      expect.objectContaining({
+        kind: 'external',
+        status: 'accepted',
+        justification: 'The swim cycle is re-exported next sprint.'
+      })
+    ]);
+  });
+
+  it("answers 404 for another project's build asked for under this project", async () => {
+    await expectError(
+      await getReport(`tidewatch/builds/${harbourBuildId}/report.json`, bearer(secret)),
+      404,
+      'build.not-found'
+    );
+  });
+
+  it("answers 403 to a token used on another project's reports", async () => {
+    await expectError(
+      await getReport(`harbour-props/builds/${harbourBuildId}/report.json`, bearer(secret)),
+      403,
+      'auth.token-wrong-project'
+    );
+  });
+
+  it('answers 401 to an unknown token, also when a session cookie comes with it', async () => {
+    await expectError(
+      await getReport(`tidewatch/builds/${buildIds[2]}/report.json`, {
+        ...bearer(`${secret.slice(0, -4)}zzzz`),
+        cookie: viewerCookie
+      }),
+      401,
+      'auth.token-invalid'
+    );
+  });
+
+  it('answers 404 for an unknown project on the token path', async () => {
+    await expectError(await getReport('no-such-game/builds/1/report.json', bearer(secret)), 404, 'project.not-found');
+  });
+
+  it('opens only the report: the build list still needs a signed-in member', async () => {
+    await expectError(await getReport('tidewatch/builds', bearer(secret)), 401, 'auth.required');
   });
 });

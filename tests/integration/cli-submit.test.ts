@@ -135,7 +135,7 @@ describe('orientry submit', () => {
     expect(await Build.count()).toBe(before);
   });
 
-  it('writes a parseable SARIF report with --format sarif --output, the summary staying on stdout', async () => {
+  it("writes the server's SARIF report with --format sarif --output, the summary staying on stdout", async () => {
     const run = await submit([
       'flipped',
       '--root',
@@ -153,12 +153,25 @@ describe('orientry submit', () => {
     expect(run.stdout).toContain('gate FAILED');
     const sarif = JSON.parse(fs.readFileSync(path.join(work, 'reports/build.sarif'), 'utf8')) as {
       version: string;
-      runs: { tool: { driver: { name: string } }; results: { ruleId: string }[] }[];
+      runs: {
+        tool: { driver: { name: string } };
+        results: { ruleId: string; baselineState?: string }[];
+        properties: { build?: { id: number; verdict: string } };
+      }[];
     };
     // SARIF 2.1.0 (OASIS): a log names its version and holds runs, each with tool.driver and results.
     expect(sarif.version).toBe('2.1.0');
     expect(sarif.runs[0].tool.driver.name.toLowerCase()).toContain('orientry');
     expect(sarif.runs[0].results.map((result) => result.ruleId)).toContain('hemisphere-jump');
+    // The server's report, not a local re-lint: it names the stored build and each result's baseline state.
+    expect(run.stderr).not.toContain('rendered on this machine');
+    expect(sarif.runs[0].properties.build).toMatchObject({ id: reportedBuildId(run), verdict: 'fail' });
+    expect(sarif.runs[0].results.every((result) => result.baselineState === 'new')).toBe(true);
+    const fromServer = await fetch(
+      `${server.url}/api/v1/projects/tidewatch/builds/${reportedBuildId(run)}/report.sarif`,
+      { headers: { authorization: `Bearer ${secret}` } }
+    );
+    expect(fs.readFileSync(path.join(work, 'reports/build.sarif'), 'utf8')).toBe(await fromServer.text());
   });
 
   it('writes the JSON report to stdout and the summary to stderr without --output', async () => {
@@ -174,8 +187,10 @@ describe('orientry submit', () => {
       'json'
     ]);
     expect(run.status, run.stderr).toBe(0);
-    const report = JSON.parse(run.stdout) as { schema: string; assets: { path: string }[] };
+    const report = JSON.parse(run.stdout) as { schema: string; build?: { id: number }; assets: { path: string }[] };
     expect(report.schema).toBe('orientry.lint-report');
+    expect(run.stderr).not.toContain('rendered on this machine');
+    expect(report.build?.id).toBeGreaterThan(0);
     expect(report.assets.map((asset) => asset.path)).toEqual(['keeper/keeper.gltf', 'props/buoy.glb']);
     expect(run.stderr).toContain('gate passed');
   });
@@ -243,6 +258,7 @@ describe('orientry submit', () => {
   it('retries a 503 with the same idempotency key and stores one build', async () => {
     // A proxy that answers the first request 503 (after reading its body), then passes requests on.
     const keys: string[] = [];
+    const headerKeys: (string | undefined)[] = [];
     let requests = 0;
     const proxy = http.createServer((request, response) => {
       requests++;
@@ -251,6 +267,7 @@ describe('orientry submit', () => {
       request.on('end', () => {
         const body = Buffer.concat(chunks);
         keys.push(/"idempotencyKey":"([^"]+)"/.exec(body.toString('latin1'))?.[1] ?? '');
+        headerKeys.push(request.headers['idempotency-key'] as string | undefined);
         if (requests === 1) {
           response.writeHead(503, { 'content-type': 'application/json', 'retry-after': '0' });
           response.end(JSON.stringify({ error: { code: 'server.busy', message: 'Restarting.' } }));
@@ -282,6 +299,8 @@ describe('orientry submit', () => {
       expect(keys).toHaveLength(2);
       expect(keys[1]).toBe(keys[0]);
       expect(keys[0]).toMatch(/^cli1-[0-9a-f]{64}$/);
+      // The same key rides in the Idempotency-Key header, so a server that has it answers before the body.
+      expect(headerKeys).toEqual(keys);
       expect(await Build.count()).toBe(before + 1);
     } finally {
       await new Promise((resolve) => proxy.close(resolve));
