@@ -43,11 +43,21 @@ const BASE_ENV = {
   AUTH_SECRET: 'api-test-secret-that-is-at-least-32-characters-long'
 };
 
+/** Options of {@link startApiTestServer}. */
+export interface ApiTestServerOptions {
+  /** Folder the server runs in (default: the repository root); it serves `cli/dist/orientry.js` from there. */
+  cwd?: string;
+}
+
 /**
  * Builds the app if needed, makes a data folder with a migrated database and starts the server.
  * @param env extra environment (e.g. small ORIENTRY_MAX_* limits).
  */
-export async function startApiTestServer(env: Record<string, string> = {}): Promise<ApiTestServer> {
+export async function startApiTestServer(
+  env: Record<string, string> = {},
+  options: ApiTestServerOptions = {}
+): Promise<ApiTestServer> {
+  const cwd = options.cwd ?? ROOT;
   const buildDir = await copyOfBuild();
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-api-'));
   const storage = path.join(dataDir, 'api.db');
@@ -69,7 +79,7 @@ export async function startApiTestServer(env: Record<string, string> = {}): Prom
   };
   let child: ChildProcess;
   try {
-    child = await launch(buildDir, serverEnv, url, output);
+    child = await launch(buildDir, cwd, serverEnv, url, output);
   } catch (error) {
     await database.sequelize.close();
     fs.rmSync(dataDir, { recursive: true, force: true });
@@ -87,7 +97,7 @@ export async function startApiTestServer(env: Record<string, string> = {}): Prom
     },
     async restart() {
       await stopChild(server.child);
-      server.child = await launch(buildDir, serverEnv, url, output);
+      server.child = await launch(buildDir, cwd, serverEnv, url, output);
     },
     async remove() {
       await stopChild(server.child);
@@ -99,8 +109,14 @@ export async function startApiTestServer(env: Record<string, string> = {}): Prom
   return server;
 }
 
-async function launch(buildDir: string, env: NodeJS.ProcessEnv, url: string, output: string[]): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [buildDir], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+async function launch(
+  buildDir: string,
+  cwd: string,
+  env: NodeJS.ProcessEnv,
+  url: string,
+  output: string[]
+): Promise<ChildProcess> {
+  const child = spawn(process.execPath, [buildDir], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] });
   for (const stream of [child.stdout!, child.stderr!]) {
     stream.setEncoding('utf8');
     stream.on('data', (text: string) => output.push(...text.split('\n').filter(Boolean)));

@@ -1,7 +1,10 @@
 import { json, redirect, type Handle } from '@sveltejs/kit';
 
-/** Paths anyone may open: the sign-in page, sign-out, Auth.js's own routes, health, and the token-authenticated API. */
-const PUBLIC_PATHS = ['/signin', '/signout'];
+/**
+ * Paths anyone may open: the sign-in page, sign-out, the bundled CLI (CI downloads it), Auth.js's
+ * own routes, health, and the token-authenticated API.
+ */
+const PUBLIC_PATHS = ['/signin', '/signout', '/cli/orientry.js'];
 const PUBLIC_PREFIXES = ['/auth/', '/api/health', '/api/v1/', '/_app/'];
 
 /**
