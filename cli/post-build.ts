@@ -1,7 +1,9 @@
 /**
  * Sends one build to the server: `POST /api/v1/projects/{project}/builds` with the streamed
  * multipart body, retried on network errors, timeouts and 5xx/429 answers with the same body
- * and idempotency key, and the answer validated into a {@link BuildAnswer}.
+ * and idempotency key (in `meta` and in the `Idempotency-Key` header, so a build the server
+ * already stored is answered without the body being read), and the answer validated into a
+ * {@link BuildAnswer}.
  */
 import { z } from 'zod';
 import { version as packageVersion } from '../package.json';
@@ -52,6 +54,8 @@ export interface PostBuildRequest {
   serverUrl: string;
   project: string;
   token: string;
+  /** Sent as the `Idempotency-Key` header too, so a server that stored it answers before the body is read. */
+  idempotencyKey: string;
   body: MultipartBody;
   retry: RetryPolicy;
   timeoutSeconds: number;
@@ -107,6 +111,7 @@ async function send(url: URL, request: PostBuildRequest): Promise<Response> {
       accept: 'application/json',
       'content-type': body.contentType,
       'content-length': String(body.byteLength),
+      'idempotency-key': request.idempotencyKey,
       // The server refuses cross-site form posts; an API client states the server's own origin.
       origin: url.origin,
       'user-agent': `orientry-cli/${packageVersion}`

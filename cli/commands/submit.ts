@@ -62,6 +62,7 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
       serverUrl: options.serverUrl,
       project: options.project,
       token,
+      idempotencyKey,
       body: createMultipartBody(uploadParts({ ...details, idempotencyKey }, files)),
       retry,
       timeoutSeconds: options.timeoutSeconds,

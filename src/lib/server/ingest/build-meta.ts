@@ -8,8 +8,8 @@ import { ApiError } from './api-error';
 /** Clock difference tolerated between a CI machine and the server. */
 const FUTURE_SLACK_MS = 5 * 60_000;
 
-/** Printable text without control characters, trimmed. */
-const text = (max: number) =>
+/** Printable text without control characters, trimmed, of 1 to `max` characters: the rule for every free-text field. */
+export const printableText = (max: number) =>
   z
     .string()
     .trim()
@@ -29,16 +29,16 @@ export const buildMetaSchema = z
       .transform((value) => value.toLowerCase())
       .nullish(),
     /** Branch the build ran on; the baseline is chosen by it. */
-    branch: text(255),
+    branch: printableText(255),
     /** Build number or label shown in lists, e.g. `#1482` or `nightly 2024-05-01`. */
-    label: text(200).nullish(),
+    label: printableText(200).nullish(),
     /** Link back to the CI job. */
     ciJobUrl: z
       .url({ protocol: /^https?$/, error: 'must be an http(s) URL' })
       .max(2000)
       .nullish(),
     /** Any client-chosen key: a repeated upload with the same key answers the first build. */
-    idempotencyKey: text(200).nullish(),
+    idempotencyKey: printableText(200).nullish(),
     /**
      * When CI built it (ISO 8601 with an offset); defaults to the time the upload arrives.
      * Lets an importer replay past builds in order so baselines and trends follow build time.

@@ -20,7 +20,8 @@ import { Asset, Build, FindingRecord, Waiver, type Project } from '../db/models'
 import { ApiError } from './api-error';
 import { assetSideFiles } from './asset-side-file';
 import { storeBlob } from './blob-store';
-import { parseBuildMeta, type BuildMeta } from './build-meta';
+import { parseBuildMeta } from './build-meta';
+import { agreedIdempotencyKey, IDEMPOTENCY_HEADER, parseIdempotencyHeader } from './idempotency-key';
 import { runBuildStoredHooks } from './build-stored-hooks';
 import { getIngestLimits } from './limits';
 import { isAssetFile, lintUpload, type LintedAsset } from './lint-upload';
@@ -32,15 +33,30 @@ import { withUploadFolder } from './upload-folder';
 export interface IngestResult {
   build: Build;
   isExisting: boolean;
+  /**
+   * True when the `Idempotency-Key` header named a stored build and the answer comes before the
+   * body was read: the route then closes the connection, since the rest of the body is still on it.
+   */
+  isBodyUnread: boolean;
 }
 
 /**
  * Ingests the multipart build upload of `request` for `project` (already authorized).
+ *
+ * A repeated upload is answered early: when the `Idempotency-Key` header equals the key of a
+ * stored build of the project, that build is the answer before a byte of the body is read. The
+ * key in `meta` stays the one stored with a new build (the header's when meta has none); when
+ * both are sent they must be equal.
  * @param origin public origin of the server, for the report URL handed to hooks.
- * @throws ApiError for every problem with the upload (400, 413).
+ * @throws ApiError for every problem with the upload (400, 413), including 400
+ *   `upload.idempotency-key-invalid` and `upload.idempotency-mismatch`.
  */
 export async function ingestBuild(project: Project, request: Request, origin: string): Promise<IngestResult> {
   const startedAtMs = Date.now();
+  const headerKey = parseIdempotencyHeader(request.headers.get(IDEMPOTENCY_HEADER));
+  const known = await findByIdempotencyKey(project.id, headerKey);
+  if (known) return { build: known, isExisting: true, isBodyUnread: true };
+
   const { dataDir } = getConfig();
   const limits = getIngestLimits();
   return withUploadFolder(dataDir, async (folder) => {
@@ -48,9 +64,10 @@ export async function ingestBuild(project: Project, request: Request, origin: st
     await fs.promises.mkdir(filesFolder);
     const upload = await receiveUpload(request, filesFolder, limits);
     const meta = parseBuildMeta(upload.metaText);
+    const idempotencyKey = agreedIdempotencyKey(headerKey, meta.idempotencyKey);
 
-    const existing = await findByIdempotencyKey(project.id, meta.idempotencyKey);
-    if (existing) return { build: existing, isExisting: true };
+    const existing = await findByIdempotencyKey(project.id, idempotencyKey);
+    if (existing) return { build: existing, isExisting: true, isBodyUnread: false };
     if (!upload.files.some((file) => isAssetFile(file.path))) throw noAssets(upload.files);
 
     const policy = await findProjectPolicy(project.id);
@@ -87,7 +104,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       commitSha: meta.commit ?? null,
       label: meta.label ?? null,
       ciJobUrl: meta.ciJobUrl ?? null,
-      idempotencyKey: meta.idempotencyKey ?? null,
+      idempotencyKey,
       baselineBuildId: baseline?.id ?? null,
       policyVersion,
       engineVersion: ENGINE_VERSION,
@@ -96,12 +113,11 @@ export async function ingestBuild(project: Project, request: Request, origin: st
     };
     try {
       const build = await writeBuild(project, row, plan, checked, origin);
-      return { build, isExisting: false };
+      return { build, isExisting: false, isBodyUnread: false };
     } catch (error) {
       // Two uploads with one key raced past the check above: the first one's build is the answer.
-      const winner =
-        error instanceof UniqueConstraintError && (await findByIdempotencyKey(project.id, meta.idempotencyKey));
-      if (winner) return { build: winner, isExisting: true };
+      const winner = error instanceof UniqueConstraintError && (await findByIdempotencyKey(project.id, idempotencyKey));
+      if (winner) return { build: winner, isExisting: true, isBodyUnread: false };
       throw error;
     }
   });
@@ -200,7 +216,7 @@ async function writeBuild(
   });
 }
 
-async function findByIdempotencyKey(projectId: number, key: BuildMeta['idempotencyKey']): Promise<Build | null> {
+async function findByIdempotencyKey(projectId: number, key: string | null | undefined): Promise<Build | null> {
   if (!key) return null;
   return Build.findOne({ where: { projectId, idempotencyKey: key } });
 }

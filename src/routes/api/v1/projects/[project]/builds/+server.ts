@@ -2,7 +2,8 @@
  * Builds of a project.
  * - POST: CI submits a build (multipart: `file` parts named by relative path, one `meta` JSON part),
  *   authorized by a project API token with the `submit` scope. 201 with the new build, 200 with
- *   the existing one for a repeated idempotency key.
+ *   the existing one for a repeated idempotency key (in meta, or in the `Idempotency-Key` header,
+ *   which is answered before the body is read).
  * - GET: the paged build list, for signed-in project members.
  */
 import { json } from '@sveltejs/kit';
@@ -25,8 +26,12 @@ export const POST: RequestHandler = apiHandler(async ({ params, request, url }) 
   }
   // The token is checked before a byte of the body is read.
   await apiTokens.verify(request.headers.get('authorization'), project, 'submit');
-  const { build, isExisting } = await ingestBuild(project, request, url.origin);
-  return json({ build: summarizeBuild(build, project.slug, url.origin) }, { status: isExisting ? 200 : 201 });
+  const { build, isExisting, isBodyUnread } = await ingestBuild(project, request, url.origin);
+  return json(
+    { build: summarizeBuild(build, project.slug, url.origin) },
+    // The unread rest of the body is still on the connection, so it cannot carry another request.
+    { status: isExisting ? 200 : 201, headers: isBodyUnread ? { connection: 'close' } : {} }
+  );
 });
 
 /** Lists the project's builds, paged. */

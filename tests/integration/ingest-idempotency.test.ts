@@ -1,0 +1,176 @@
+/**
+ * The `Idempotency-Key` header of a build upload through the real server: a stored key is
+ * answered before the body is read, the header agrees with the key in meta or the upload is
+ * refused, and a header alone keys a new build.
+ */
+import http from 'node:http';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Build } from '$lib/server/db/models';
+import { diverGlb } from './api-fixtures';
+import {
+  countBuildRows,
+  listUploadFolders,
+  postBuild,
+  seedProject,
+  startApiTestServer,
+  type ApiTestServer,
+  type UploadFile
+} from './api-test-server';
+
+let server: ApiTestServer;
+let secret: string;
+let otherSecret: string;
+let projectId: number;
+let files: UploadFile[];
+
+interface BuildAnswer {
+  build: { id: number; branch: string };
+}
+
+beforeAll(async () => {
+  server = await startApiTestServer();
+  const seeded = await seedProject('tidewatch');
+  secret = seeded.secret;
+  projectId = seeded.project.id;
+  ({ secret: otherSecret } = await seedProject('harbour-props'));
+  files = [{ path: 'chars/kelp-diver.glb', bytes: await diverGlb() }];
+});
+afterAll(async () => server?.remove());
+
+/** Posts `files` with the header and meta keys given (null leaves one out). */
+async function submit(
+  headerKey: string | null,
+  metaKey: string | null,
+  options: { slug?: string; token?: string } = {}
+): Promise<Response> {
+  return postBuild(
+    server,
+    options.slug ?? 'tidewatch',
+    options.token ?? secret,
+    files,
+    { branch: 'main', ...(metaKey === null ? {} : { idempotencyKey: metaKey }) },
+    { headers: headerKey === null ? {} : { 'idempotency-key': headerKey } }
+  );
+}
+
+/**
+ * Sends the head of an upload and the first bytes of its body, then waits for an answer without
+ * ever sending the rest: only a server that answers before reading the body answers at all.
+ */
+async function postHeadOnly(headerKey: string): Promise<{ status: number; connection: string; body: string }> {
+  const boundary = '----orientry-early-answer';
+  const url = new URL(`${server.url}/api/v1/projects/tidewatch/builds`);
+  return new Promise((resolve, reject) => {
+    const request = http.request({
+      host: url.hostname,
+      port: url.port,
+      path: url.pathname,
+      method: 'POST',
+      headers: {
+        authorization: `Bearer ${secret}`,
+        origin: server.url,
+        'idempotency-key': headerKey,
+        'content-type': `multipart/form-data; boundary=${boundary}`,
+        'content-length': String(50 * 1024 * 1024)
+      }
+    });
+    const timer = setTimeout(() => {
+      request.destroy();
+      reject(new Error('No answer within 10 s: the server waited for the body.'));
+    }, 10_000);
+    request.on('error', (error) => {
+      clearTimeout(timer);
+      reject(error);
+    });
+    request.on('response', (response) => {
+      let body = '';
+      response.setEncoding('utf8');
+      response.on('data', (text: string) => (body += text));
+      response.on('end', () => {
+        clearTimeout(timer);
+        request.destroy();
+        resolve({ status: response.statusCode!, connection: String(response.headers.connection), body });
+      });
+    });
+    request.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="chars/huge.glb"\r\n\r\n`);
+    request.write(Buffer.alloc(64 * 1024, 7));
+  });
+}
+
+describe('Idempotency-Key header', () => {
+  let storedId: number;
+
+  it('stores a new build under the key from meta when the header agrees', async () => {
+    const response = await submit('ci-job-5101', 'ci-job-5101');
+    expect(response.status).toBe(201);
+    storedId = ((await response.json()) as BuildAnswer).build.id;
+    expect((await Build.findByPk(storedId))?.idempotencyKey).toBe('ci-job-5101');
+  });
+
+  it('answers 200 with the stored build before the body is read, and closes the connection', async () => {
+    const before = await countBuildRows(server.database);
+    const answer = await postHeadOnly('ci-job-5101');
+    expect(answer.status).toBe(200);
+    expect(answer.connection).toBe('close');
+    expect((JSON.parse(answer.body) as BuildAnswer).build.id).toBe(storedId);
+    expect(await countBuildRows(server.database)).toEqual(before);
+  });
+
+  it('answers a repeated whole upload from the header alone, the same as from meta', async () => {
+    const before = await countBuildRows(server.database);
+    const response = await submit('ci-job-5101', null);
+    expect(response.status).toBe(200);
+    expect(((await response.json()) as BuildAnswer).build.id).toBe(storedId);
+    expect(await countBuildRows(server.database)).toEqual(before);
+    expect(listUploadFolders(server)).toEqual([]);
+  });
+
+  it('refuses 400 upload.idempotency-mismatch when the header and meta name different keys, storing nothing', async () => {
+    const before = await countBuildRows(server.database);
+    const response = await submit('ci-job-5102', 'ci-job-5103');
+    expect(response.status).toBe(400);
+    const { error } = (await response.json()) as { error: { code: string; message: string } };
+    expect(error.code).toBe('upload.idempotency-mismatch');
+    expect(error.message).toContain('"ci-job-5102"');
+    expect(error.message).toContain('"ci-job-5103"');
+    expect(await countBuildRows(server.database)).toEqual(before);
+    expect(listUploadFolders(server)).toEqual([]);
+  });
+
+  it('answers a stored header key even when meta names another key, since the body is never read', async () => {
+    const response = await submit('ci-job-5101', 'ci-job-5104');
+    expect(response.status).toBe(200);
+    expect(((await response.json()) as BuildAnswer).build.id).toBe(storedId);
+  });
+
+  it('stores a new build under the header key when meta has none, and answers it on the next upload', async () => {
+    const first = await submit('ci-job-5105', null);
+    expect(first.status).toBe(201);
+    const { id } = ((await first.json()) as BuildAnswer).build;
+    expect((await Build.findByPk(id))?.idempotencyKey).toBe('ci-job-5105');
+    const again = await submit(null, 'ci-job-5105');
+    expect(again.status).toBe(200);
+    expect(((await again.json()) as BuildAnswer).build.id).toBe(id);
+  });
+
+  it('matches keys within one project only', async () => {
+    const response = await submit('ci-job-5101', null, { slug: 'harbour-props', token: otherSecret });
+    expect(response.status).toBe(201);
+    expect(((await response.json()) as BuildAnswer).build.id).not.toBe(storedId);
+    expect(await Build.count({ where: { projectId, idempotencyKey: 'ci-job-5101' } })).toBe(1);
+  });
+
+  it.each([
+    { name: 'empty', value: '  ', reason: 'must not be empty' },
+    { name: 'too long', value: 'k'.repeat(201), reason: 'at most 200 characters' }
+  ])('refuses an $name header with 400 upload.idempotency-key-invalid', async ({ value, reason }) => {
+    const before = await countBuildRows(server.database);
+    const response = await submit(value, null);
+    expect(response.status).toBe(400);
+    const { error } = (await response.json()) as { error: { code: string; message: string } };
+    expect(error.code).toBe('upload.idempotency-key-invalid');
+    expect(error.message).toContain('Idempotency-Key');
+    expect(error.message).toContain(reason);
+    expect(await countBuildRows(server.database)).toEqual(before);
+  });
+});
