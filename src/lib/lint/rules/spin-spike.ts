@@ -121,6 +121,8 @@ function findMedian(channel: RotationChannel, threshold: number): MedianFact {
   const segmentCount = Math.max(0, channel.keyCount - 1);
   let usable = 0;
   let surelySlower = 0;
+  // At most segmentCount segments are usable, so this many certainly slower ones settle it early.
+  const enough = Math.floor(segmentCount / 2) + 1;
   const thresholdSquared = threshold * threshold;
   const limit = thresholdSquared / (Math.PI * Math.PI);
   let x0 = values[0];
@@ -145,7 +147,7 @@ function findMedian(channel: RotationChannel, threshold: number): MedianFact {
     if (!(duration > 0) || !(lengthProduct > 0 && lengthProduct < Infinity)) continue;
     usable++;
     // speed² ≤ π²(1 − |cos|)/Δt² ≤ π²(1 − cos²)/Δt² = π²(|a|²|b|² − dot²)/(|a|²|b|²·Δt²).
-    if (lengthProduct - dot * dot < limit * duration * duration * lengthProduct) surelySlower++;
+    if (lengthProduct - dot * dot < limit * duration * duration * lengthProduct && ++surelySlower >= enough) break;
   }
   // With ⌊n/2⌋ + 1 values below the threshold, both middle values are below it.
   if (surelySlower >= Math.floor(usable / 2) + 1) return { value: threshold, isBound: true };

@@ -185,7 +185,8 @@ function slerpOutcome(
     ((skew < 0 ? -skew : skew) / (2 * span) + (0.64 * (mismatch < 0 ? -mismatch : mismatch)) / lengthSum);
   const beyond = tolerance + slack;
   const farCosine = 1 - (beyond * beyond) / 2;
-  if (alongSquared < farCosine * farCosine * base) return REDUNDANCY.no;
+  // Squaring only compares cosines while both sides are positive (|cos d| is).
+  if (farCosine > 0 && alongSquared < farCosine * farCosine * base) return REDUNDANCY.no;
   const margin = tolerance - slack;
   if (margin <= 0) return REDUNDANCY.undecided;
   const marginSquared = margin * margin;
