@@ -42,6 +42,15 @@ test('an artist follows the worst finding of the latest failing build to its cha
   await expect(findingRows.first().locator('[data-severity="error"]')).toBeVisible();
   await journeyScreenshot(page, testInfo, 2, 'build-report');
 
+  // Filters read the findings API in place and keep the URL in step.
+  const total = await findingRows.count();
+  await page.getByLabel('Standing', { exact: true }).selectOption('unchanged');
+  await expect(page).toHaveURL(/[?&]status=unchanged/);
+  await expect(page.locator('tr[data-finding-id] [data-standing]:not([data-standing="unchanged"])')).toHaveCount(0);
+  await page.getByRole('button', { name: 'Clear' }).click();
+  await expect(page).not.toHaveURL(/status=/);
+  await expect(findingRows).toHaveCount(total);
+
   const worstPlottable = findingRows.filter({ has: page.getByRole('link', { name: 'Plot channel' }) }).first();
   const findingId = await worstPlottable.getAttribute('data-finding-id');
   const rule = (await worstPlottable.locator('code').first().innerText()).trim();
@@ -88,6 +97,15 @@ test('a viewer sees the channel plot without a download, and the fixed-asset rou
   await expect(page.getByRole('img', { name: /^Quaternion components of / }).locator('canvas')).toBeAttached();
   await expect(page.getByRole('link', { name: 'Download fixed asset' })).toHaveCount(0);
   await journeyScreenshot(page, testInfo, 1, 'viewer-channel-plot');
+
+  // Another channel from the node tree replaces the plots in place.
+  const tree = page.getByRole('navigation', { name: 'Animated nodes and their rotation channels' });
+  const otherHref = await tree.locator('a:not([aria-current])').first().getAttribute('href');
+  const other = tree.locator(`a[href="${otherHref}"]`);
+  await other.click();
+  await expect(page).toHaveURL(/[?&]channel=\d+:\d+/);
+  await expect(other).toHaveAttribute('aria-current', 'true');
+  await expect(page.getByRole('img', { name: /^Quaternion components of / }).locator('canvas')).toBeAttached();
 
   const fixedPath = new URL(page.url()).pathname + '/fixed';
   const response = await page.request.get(fixedPath);
