@@ -14,15 +14,15 @@ export function describeTurn(turn: PrincipalTurn): string {
 /** What a root turn like this usually corrects, in glTF's +Y up, +Z front basis (spec §3.4). */
 export function describeTurnCause(turn: PrincipalTurn): string {
   if (turn.axis === 'X' && turn.angleDegrees === -90) {
-    return 'the classic Z-up to Y-up conversion: the content below was authored with +Z up';
+    return 'the classic Z-up to Y-up conversion, for content authored with +Z up';
   }
   if (turn.axis === 'X' && turn.angleDegrees === 90) {
-    return 'a conversion between Y-up and Z-up, applied in the opposite direction to the usual one';
+    return 'a conversion between Y-up and Z-up, turned the opposite way to the usual one';
   }
-  if (turn.axis === 'X') return 'an upside-down correction: the content below was authored with up pointing down';
+  if (turn.axis === 'X') return 'an upside-down correction, for content authored with up pointing down';
   if (turn.axis === 'Y' && turn.angleDegrees === 180) {
-    return 'a facing correction: the content below faces −Z, and glTF assets face +Z';
+    return 'a facing correction, for content that faces −Z while glTF assets face +Z';
   }
-  if (turn.axis === 'Y') return 'a facing correction: the content below faces ±X, and glTF assets face +Z';
+  if (turn.axis === 'Y') return 'a facing correction, for content that faces ±X while glTF assets face +Z';
   return 'a conversion from a tool whose up or right axis differs from glTF\u2019s';
 }

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatDegrees, formatNumber, formatQuaternion, formatSeconds } from './format-number';
+import {
+  formatBytes,
+  formatDegrees,
+  formatDegreesPerSecond,
+  formatNumber,
+  formatQuaternion,
+  formatSeconds
+} from './format-number';
 
 describe('formatNumber', () => {
   it.each([
@@ -22,6 +29,11 @@ describe('unit formatters', () => {
     expect(formatDegrees(152.34)).toBe('152.3°');
     expect(formatDegrees(90)).toBe('90°');
     expect(formatDegrees(0.0123)).toBe('0.012°');
+  });
+
+  it('writes fast speeds in whole degrees per second', () => {
+    expect(formatDegreesPerSecond(5110.9)).toBe('5111°/s');
+    expect(formatDegreesPerSecond(45.25)).toBe('45.3°/s');
   });
 
   it('writes seconds to the millisecond', () => {

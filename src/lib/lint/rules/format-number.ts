@@ -28,6 +28,13 @@ export function formatDegrees(angleDegrees: number): string {
   return `${text}°`;
 }
 
+/** An angular speed: whole degrees per second from 100°/s up, else as formatDegrees. @example formatDegreesPerSecond(5110.9) → "5111°/s" */
+export function formatDegreesPerSecond(degreesPerSecond: number): string {
+  if (Number.isFinite(degreesPerSecond) && Math.abs(degreesPerSecond) >= 100)
+    return `${Math.round(degreesPerSecond)}°/s`;
+  return `${formatDegrees(degreesPerSecond)}/s`;
+}
+
 /** A time in seconds with millisecond precision. @example formatSeconds(0.0333333) → "0.033 s" */
 export function formatSeconds(timeSeconds: number): string {
   if (!Number.isFinite(timeSeconds)) return `${formatNumber(timeSeconds)} s`;

@@ -51,8 +51,8 @@ function checkHemisphereJump(channel: RotationChannel, context: RuleContext): vo
         values: { flips: range.flaggedCount, worstKey: k, dot: -range.worstScore },
         message:
           `${describePlace(channel, range.first, range.last)}: ${range.flaggedCount === 1 ? 'one step changes' : `${range.flaggedCount} steps change`} ` +
-          `hemisphere; key ${k + 1} is nearer the negation of key ${k} than key ${k} itself (normalized dot ` +
-          `${formatNumber(-range.worstScore, 3)}). Both are the same pose, but the curve between them is not. ${why}`,
+          `hemisphere; key ${k + 1} lies closer to −key ${k} than to key ${k} (normalized dot ` +
+          `${formatNumber(-range.worstScore, 4)}). Both are the same pose, but the curve between them is not. ${why}`,
         hint:
           'Run `orientry fix <file> -o <fixed file> --rules hemisphere-jump` (unflip hemispheres): it negates keys ' +
           '(and their tangents) so each key lies in the same hemisphere as the one before, which changes no pose.',

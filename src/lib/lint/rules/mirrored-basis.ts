@@ -50,7 +50,11 @@ function reportNode(node: NodeFacts, nodes: readonly NodeFacts[], context: RuleC
     if (other.hasMesh) meshes++;
     if (other.isJoint) joints++;
   }
-  const affected = [plural(meshes, 'mesh', 'meshes'), plural(joints, 'joint', 'joints')].join(' and ');
+  const parts = [
+    meshes > 0 ? plural(meshes, 'mesh', 'meshes') : '',
+    joints > 0 ? plural(joints, 'joint', 'joints') : ''
+  ];
+  const affected = parts.filter((part) => part !== '').join(' and ') || 'no meshes or joints yet';
   context.emit({
     animation: null,
     channel: null,

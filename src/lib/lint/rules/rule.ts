@@ -20,7 +20,11 @@ export interface FindingDraft {
   hint: string;
   /** Extra fingerprint discriminator (e.g. `rest` for a rest rotation, a skin index). */
   target?: string;
-  /** Overrides the rule's severity for this finding (e.g. hemisphere-jump: error on CUBICSPLINE). */
+  /**
+   * Overrides the rule's severity for this finding (e.g. hemisphere-jump: error on CUBICSPLINE).
+   * Rules that grade their findings set it through gradedSeverity(), so a severity the policy sets
+   * for the rule still wins.
+   */
   severity?: Severity;
 }
 

@@ -20,7 +20,7 @@ import type { RotationChannel } from '../read/rotation-channel';
 import type { ChannelRule, RuleContext } from './rule';
 import { MARK, forEachMarkedKey, getChannelDigest } from './digest/channel-digest';
 import { channelDraft, describePlace } from './channel-draft';
-import { formatDegrees, formatSeconds } from './format-number';
+import { formatDegrees, formatDegreesPerSecond, formatSeconds } from './format-number';
 import { KeyRangeCollector } from './key-ranges';
 import { keyAngleRadians } from '../math/key-angle';
 import { isUsableKey } from '../math/flat-keys';
@@ -90,9 +90,9 @@ function checkSpinSpike(channel: RotationChannel, context: RuleContext): void {
         },
         message:
           `${describePlace(channel, range.first, range.last)}: keys ${k}–${k + 1} turn ${formatDegrees(angleDegrees)} in ` +
-          `${formatSeconds(duration)}, ${formatDegrees(speedDegrees)}/s: above the ` +
-          `${formatDegrees(context.policy.maxSpeedDegreesPerSecond)}/s limit and more than ${factor}× the channel's median ` +
-          `speed (${median.isBound ? 'below ' : ''}${formatDegrees(medianDegrees)}/s). A one-step spin like this is ` +
+          `${formatSeconds(duration)}, ${formatDegreesPerSecond(speedDegrees)}: above the ` +
+          `${formatDegreesPerSecond(context.policy.maxSpeedDegreesPerSecond)} limit and more than ${factor}× the channel's ` +
+          `median speed (${median.isBound ? 'below ' : ''}${formatDegreesPerSecond(medianDegrees)}). A one-step spin like this is ` +
           'the usual trace of an Euler bake passing through gimbal lock: two angles flip by 180° between frames and ' +
           'the quaternions whip round with them.',
         hint:

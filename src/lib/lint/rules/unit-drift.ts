@@ -105,8 +105,10 @@ function reportKeys(
           tolerance: tolerances.warning
         },
         message:
-          `${describePlace(channel, range.first, range.last)}: ${range.flaggedCount === 1 ? 'this key is' : `${range.flaggedCount} keys are`} ` +
-          `not unit length; the worst, key ${range.worstIndex}, has length ${formatLength(length)} ` +
+          `${describePlace(channel, range.first, range.last)}: ` +
+          (range.flaggedCount === 1
+            ? `key ${range.worstIndex} is not unit length: its length is ${formatLength(length)} `
+            : `${range.flaggedCount} keys are not unit length; the worst, key ${range.worstIndex}, has length ${formatLength(length)} `) +
           `(${describeDeviation(length)}). Applied as q·v·q* it scales the node by ` +
           `${formatNumber(scalePercent(length), 2)}% as well as rotating it, in every player that does not ` +
           `renormalize.${quantizedNote}`,
