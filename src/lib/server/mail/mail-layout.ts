@@ -16,7 +16,7 @@ export const MAIL_COLORS = {
   ink50: '#F5F6F8',
   paper: '#FAFAF7',
   white: '#FFFFFF',
-  accent600: '#4450C2',
+  accent700: '#3A45B0',
   errorText: '#B42318',
   errorBg: '#FDECEA',
   warningText: '#8A4B00',
@@ -77,11 +77,11 @@ ${frame.bodyHtml}
 
 /** A link styled as the app's links. `href` must be an absolute URL the caller built. */
 export function mailLink(href: string, label: string): string {
-  return `<a href="${escapeHtml(href)}" style="color:${MAIL_COLORS.accent600};text-decoration:underline;">${escapeHtml(label)}</a>`;
+  return `<a href="${escapeHtml(href)}" style="color:${MAIL_COLORS.accent700};text-decoration:underline;">${escapeHtml(label)}</a>`;
 }
 
 /** A primary button (a styled link; mail clients have no forms worth trusting). */
 export function mailButton(href: string, label: string): string {
   const c = MAIL_COLORS;
-  return `<a href="${escapeHtml(href)}" style="display:inline-block;background:${c.accent600};color:${c.white};text-decoration:none;font-weight:600;padding:8px 14px;border-radius:6px;">${escapeHtml(label)}</a>`;
+  return `<a href="${escapeHtml(href)}" style="display:inline-block;background:${c.accent700};color:${c.white};text-decoration:none;font-weight:600;padding:8px 14px;border-radius:6px;">${escapeHtml(label)}</a>`;
 }
