@@ -61,7 +61,15 @@ export function componentsChart(input: ChannelPlotInput): LineConfig {
       COMPONENT_STYLES.map((style) => ({ x: shown.times[keyIndex], y: shown[style.name][keyIndex] }))
     )
   );
-  return lineConfig(datasets, input, { title: 'Component value', suggestedMin: -1, suggestedMax: 1 });
+  // Unit quaternions keep every component within [-1, 1]; a fixed range keeps channels comparable at a glance.
+  const components = [stored, ...(fixed ? [fixed] : [])].flatMap((series) => [
+    ...series.x,
+    ...series.y,
+    ...series.z,
+    ...series.w
+  ]);
+  const bound = 1.05 * Math.max(1, ...components.filter(Number.isFinite).map(Math.abs));
+  return lineConfig(datasets, input, { title: 'Component value', min: -bound, max: bound });
 }
 
 /** |q| per key, with the policy's warning and error bands shaded above and below 1. */
@@ -257,7 +265,7 @@ function markerDatasets(
 function lineConfig(
   datasets: LineDataset[],
   input: ChannelPlotInput,
-  axis: { title: string; suggestedMin?: number; suggestedMax?: number; digits?: number }
+  axis: { title: string; min?: number; max?: number; suggestedMin?: number; suggestedMax?: number; digits?: number }
 ): LineConfig {
   const selected = input.markers.find((marker) => marker.findingId === input.selectedFindingId);
   const selectedTime =
@@ -283,6 +291,8 @@ function lineConfig(
         },
         y: {
           type: 'linear',
+          min: axis.min,
+          max: axis.max,
           suggestedMin: axis.suggestedMin,
           suggestedMax: axis.suggestedMax,
           title: { display: true, text: axis.title, color: CHART_COLORS.tick, font: { size: 11 } },
@@ -290,6 +300,8 @@ function lineConfig(
           ticks: {
             color: CHART_COLORS.tick,
             font: { size: 11 },
+            // A fixed range (components) keeps round ticks; its ±1.05 edges are margin, not values worth a label.
+            includeBounds: axis.min === undefined,
             callback: (value) => Number(value).toFixed(digits)
           }
         }
