@@ -94,11 +94,12 @@ function paragraph(text: string): string {
 function assetList(assets: readonly BuildMailAsset[], total: number, reportUrl: string): string {
   let shown = 0;
   const blocks = assets.map((asset) => {
-    const rows = asset.findings.map((finding) => {
+    const rows = asset.findings.map((finding, index) => {
       shown++;
+      const rule = index < asset.findings.length - 1 ? `border-bottom:1px solid ${c.ink100};` : '';
       return (
         `<tr><td style="padding:6px 8px 6px 0;vertical-align:top;white-space:nowrap;">${severityChip(finding.severity)}</td>` +
-        `<td style="padding:6px 0;vertical-align:top;border-bottom:1px solid ${c.ink100};">` +
+        `<td style="padding:6px 0;vertical-align:top;${rule}">` +
         `<div style="font-family:${MAIL_MONO_FONT};font-size:12px;color:${c.ink900};">${escapeHtml(finding.rule)}</div>` +
         `<div style="font-size:12px;color:${c.ink600};">${escapeHtml(placeOf(finding))}</div>` +
         `<div style="font-size:13px;line-height:18px;margin-top:2px;">${escapeHtml(finding.message)}</div></td></tr>`

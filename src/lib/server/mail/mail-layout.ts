@@ -62,7 +62,7 @@ export function renderMailHtml(frame: MailFrame): string {
 <table role="presentation" width="100%" cellpadding="0" cellspacing="0" style="background:${c.paper};">
 <tr><td align="center" style="padding:24px 12px;">
 <table role="presentation" width="100%" cellpadding="0" cellspacing="0" style="max-width:640px;">
-<tr><td style="padding:0 4px 12px 4px;font-size:13px;font-weight:600;letter-spacing:0.02em;color:${c.ink600};">&#9675; Orientry</td></tr>
+<tr><td style="padding:0 4px 12px 4px;font-size:13px;font-weight:600;letter-spacing:0.02em;color:${c.ink900};"><span style="display:inline-block;width:8px;height:8px;border:2px solid ${c.accent700};border-radius:50%;vertical-align:-1px;margin-right:6px;"></span>Orientry</td></tr>
 <tr><td style="background:${c.white};border:1px solid ${c.ink100};border-radius:8px;padding:20px 20px 8px 20px;">
 ${frame.bodyHtml}
 </td></tr>
