@@ -1,31 +1,45 @@
 import path from 'node:path';
 import { ConfigError } from '../errors';
 
-/** Where the database lives, as Sequelize needs it. */
-export interface DatabaseLocation {
+/** A SQLite database file (or a private in-memory database). */
+export interface SqliteLocation {
   dialect: 'sqlite';
   /** Absolute file path, or `:memory:` for a private in-memory database. */
   storage: string;
 }
 
-const EXAMPLE = 'Use sqlite:<path> (for example sqlite:data/orientry.db) or sqlite::memory:';
+/** A PostgreSQL database on a server, reached through a connection URL. */
+export interface PostgresLocation {
+  dialect: 'postgres';
+  /** The connection URL as given, password included: only ever handed to the driver. */
+  url: string;
+  /** The same URL with its password hidden, for messages and logs. */
+  storage: string;
+  /** The database name from the URL path. */
+  databaseName: string;
+}
+
+/** Where the database lives, as Sequelize needs it. `storage` is always safe to print. */
+export type DatabaseLocation = SqliteLocation | PostgresLocation;
+
+const EXAMPLE =
+  'Use sqlite:<path> (for example sqlite:data/orientry.db), sqlite::memory: or ' +
+  'postgres://<user>:<password>@<host>:<port>/<database>';
 
 /**
- * Parses DATABASE_URL into a database location, resolving relative paths against `cwd`.
+ * Parses DATABASE_URL into a database location, resolving relative SQLite paths against `cwd`.
  * Accepted: `sqlite:path`, `sqlite://path` (both relative), `sqlite:/abs/path`, `sqlite:///abs/path`,
- * `sqlite::memory:`. PostgreSQL URLs are recognised but not supported yet.
+ * `sqlite::memory:`, and `postgres://` or `postgresql://` URLs with a host and a database name
+ * (query options such as `?ssl=true` go to the driver unchanged).
  *
  * @example parseDatabaseUrl('sqlite:data/x.db', '/srv') → { dialect: 'sqlite', storage: '/srv/data/x.db' }
- * @throws ConfigError with a one-line message naming the value and what to use instead.
+ * @example parseDatabaseUrl('postgres://app:pw@db:5432/orientry', '/srv')
+ *   → { dialect: 'postgres', url: 'postgres://app:pw@db:5432/orientry', storage: 'postgres://app:***@db:5432/orientry', databaseName: 'orientry' }
+ * @throws ConfigError with a one-line message naming the value (password hidden) and what to use instead.
  */
 export function parseDatabaseUrl(url: string, cwd: string): DatabaseLocation {
   const value = url.trim();
-  if (/^postgres(ql)?:/i.test(value)) {
-    throw new ConfigError(
-      'config.database-url.unsupported',
-      `DATABASE_URL "${redact(value)}" points at PostgreSQL, which Orientry does not support yet. ${EXAMPLE}.`
-    );
-  }
+  if (/^postgres(ql)?:/i.test(value)) return parsePostgresUrl(value);
   const match = /^sqlite:(.*)$/i.exec(value);
   if (!match) {
     throw new ConfigError(
@@ -44,7 +58,35 @@ export function parseDatabaseUrl(url: string, cwd: string): DatabaseLocation {
   return { dialect: 'sqlite', storage: path.resolve(cwd, decodeURIComponent(rest)) };
 }
 
+function parsePostgresUrl(value: string): PostgresLocation {
+  const shown = redact(value);
+  let parsed: URL;
+  try {
+    parsed = new URL(value);
+  } catch (error) {
+    throw new ConfigError(
+      'config.database-url.invalid',
+      `DATABASE_URL "${shown}" is not a valid URL. ${EXAMPLE}; percent-encode special characters in the password.`,
+      { cause: error }
+    );
+  }
+  if (!/^\/\/[^/?#]/.test(value.slice(value.indexOf(':') + 1)) || parsed.hostname === '') {
+    throw new ConfigError(
+      'config.database-url.invalid',
+      `DATABASE_URL "${shown}" names no PostgreSQL host. ${EXAMPLE}.`
+    );
+  }
+  const databaseName = decodeURIComponent(parsed.pathname.replace(/^\//, ''));
+  if (databaseName === '' || databaseName.includes('/')) {
+    throw new ConfigError(
+      'config.database-url.invalid',
+      `DATABASE_URL "${shown}" names no database (the path after the host, e.g. /orientry). ${EXAMPLE}.`
+    );
+  }
+  return { dialect: 'postgres', url: value, storage: shown, databaseName };
+}
+
 /** Hides a password in a URL before it goes into a message. */
-function redact(url: string): string {
+export function redact(url: string): string {
   return url.replace(/^([a-z][a-z0-9+.-]*:\/\/[^:/@]*):[^@/]*@/i, '$1:***@');
 }
