@@ -5,14 +5,25 @@ import { MIGRATIONS, type Migration } from './migrations';
 /** Table that records applied migrations (umzug's Sequelize storage). */
 export const MIGRATION_TABLE = 'SequelizeMeta';
 
+/** Key of the PostgreSQL advisory lock that migrating servers queue on (any fixed number works). */
+const MIGRATION_LOCK_KEY = 7_410_228;
+
 /**
  * Applies every pending migration, in order, and returns the names it applied (empty when
  * the schema is current, so calling it on every start is cheap and safe).
  * Used at server start and by scripts; never `sync()` a real database.
+ * On PostgreSQL several servers may start at once against one database: they queue on an advisory
+ * lock, so one migrates and the others then find nothing left to apply.
  */
 export async function migrate(sequelize: Sequelize, migrations: readonly Migration[] = MIGRATIONS): Promise<string[]> {
-  const applied = await umzugFor(sequelize, migrations).up();
-  return applied.map((migration) => migration.name);
+  const run = async () => (await umzugFor(sequelize, migrations).up()).map((migration) => migration.name);
+  if (sequelize.getDialect() !== 'postgres') return run();
+  // A transaction pins one pooled connection to hold the lock; it ends (and frees the lock) when
+  // `run` settles. The migrations themselves run on other connections of the pool.
+  return sequelize.transaction(async (transaction) => {
+    await sequelize.query(`SELECT pg_advisory_xact_lock(${MIGRATION_LOCK_KEY})`, { transaction });
+    return run();
+  });
 }
 
 /** Names of the migrations already applied to this database, oldest first. */

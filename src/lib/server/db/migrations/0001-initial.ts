@@ -5,17 +5,13 @@
  * to people and to optional builds or waivers become NULL (SET NULL), so history outlives them.
  */
 import { DataTypes, type QueryInterface } from 'sequelize';
-import { checked, oneOf } from './column-types';
+import { columnTypes, POSTGRES_JSON_CHECK_FUNCTION, quoted } from './column-types';
 
 export const name = '0001-initial';
 
 const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true, allowNull: false };
 const timestamp = { type: DataTypes.DATE, allowNull: false };
 const optionalDate = { type: DataTypes.DATE, allowNull: true };
-/** A non-negative counter starting at 0. */
-function countColumn(column: string) {
-  return { type: checked('INTEGER', `\`${column}\` >= 0`), allowNull: false, defaultValue: 0 };
-}
 
 function owner(table: string, allowNull = false) {
   return {
@@ -29,15 +25,24 @@ function owner(table: string, allowNull = false) {
 const severities = ['error', 'warning', 'info'];
 const userRoles = ['admin', 'lead', 'artist', 'viewer'];
 const projectRoles = ['lead', 'artist', 'viewer'];
-const sha256Hex = (column: string) =>
-  checked('CHAR(64)', `length(\`${column}\`) = 64 AND \`${column}\` NOT GLOB '*[^0-9a-f]*'`);
 
 /** Creates every table and index of the first schema. */
 export async function up(queryInterface: QueryInterface): Promise<void> {
+  const { checked, oneOf, onlyCharacters, startsWithCharacter, isJson } = columnTypes(queryInterface);
+  /** A non-negative counter starting at 0. */
+  const countColumn = (column: string) => ({
+    type: checked('INTEGER', `${quoted(column)} >= 0`),
+    allowNull: false,
+    defaultValue: 0
+  });
+  const sha256Hex = (column: string) =>
+    checked('CHAR(64)', `length(${quoted(column)}) = 64 AND ${onlyCharacters(column, '0-9a-f')}`);
+  if (queryInterface.sequelize.getDialect() === 'postgres') await createJsonCheckFunction(queryInterface);
+
   await queryInterface.createTable('users', {
     id,
     email: {
-      type: checked('VARCHAR(320)', "`email` = lower(trim(`email`)) AND `email` LIKE '%_@_%'"),
+      type: checked('VARCHAR(320)', `"email" = lower(trim("email")) AND "email" LIKE '%_@_%'`),
       allowNull: false,
       unique: true
     },
@@ -57,16 +62,17 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.createTable('projects', {
     id,
     slug: {
-      // The same rule as PROJECT_SLUG_PATTERN, /^[a-z0-9][a-z0-9-]{1,62}$/, in GLOB terms.
+      // The same rule as PROJECT_SLUG_PATTERN, /^[a-z0-9][a-z0-9-]{1,62}$/.
       type: checked(
         'VARCHAR(63)',
-        "length(`slug`) BETWEEN 2 AND 63 AND `slug` GLOB '[a-z0-9]*' AND `slug` NOT GLOB '*[^a-z0-9-]*'"
+        `length("slug") BETWEEN 2 AND 63 AND ${startsWithCharacter('slug', 'a-z0-9')} AND ` +
+          onlyCharacters('slug', 'a-z0-9-')
       ),
       allowNull: false,
       unique: true
     },
     name: { type: DataTypes.STRING(200), allowNull: false },
-    baseBranch: { type: checked('VARCHAR(255)', "`baseBranch` <> ''"), allowNull: false, defaultValue: 'main' },
+    baseBranch: { type: checked('VARCHAR(255)', `"baseBranch" <> ''`), allowNull: false, defaultValue: 'main' },
     createdAt: timestamp,
     updatedAt: timestamp
   });
@@ -103,8 +109,8 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.createTable('project_policies', {
     id,
     projectId: owner('projects'),
-    revision: { type: checked('INTEGER', '`revision` >= 1'), allowNull: false },
-    policyJson: { type: checked('TEXT', 'json_valid(`policyJson`)'), allowNull: false },
+    revision: { type: checked('INTEGER', '"revision" >= 1'), allowNull: false },
+    policyJson: { type: checked('TEXT', isJson('policyJson')), allowNull: false },
     policyVersion: { type: DataTypes.STRING(32), allowNull: false },
     createdById: owner('users', true),
     createdAt: timestamp
@@ -117,7 +123,7 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.createTable('builds', {
     id,
     projectId: owner('projects'),
-    branch: { type: checked('VARCHAR(255)', "`branch` <> ''"), allowNull: false },
+    branch: { type: checked('VARCHAR(255)', `"branch" <> ''`), allowNull: false },
     commitSha: { type: DataTypes.STRING(64), allowNull: true },
     label: { type: DataTypes.STRING(200), allowNull: true },
     ciJobUrl: { type: DataTypes.STRING(2048), allowNull: true },
@@ -151,9 +157,9 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.createTable('assets', {
     id,
     buildId: owner('builds'),
-    path: { type: checked('VARCHAR(1024)', "`path` <> ''"), allowNull: false },
+    path: { type: checked('VARCHAR(1024)', `"path" <> ''`), allowNull: false },
     contentHash: { type: sha256Hex('contentHash'), allowNull: false },
-    byteLength: { type: checked('INTEGER', '`byteLength` >= 0'), allowNull: false },
+    byteLength: { type: checked('INTEGER', '"byteLength" >= 0'), allowNull: false },
     policyVersion: { type: DataTypes.STRING(32), allowNull: false },
     unreadable: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     statsJson: { type: DataTypes.TEXT, allowNull: true },
@@ -170,16 +176,16 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
     projectId: owner('projects'),
     scope: {
       type: checked(
-        "VARCHAR(16) CHECK (`scope` IN ('fingerprint', 'rule-asset'))",
-        "(`scope` = 'fingerprint' AND `fingerprint` IS NOT NULL) OR " +
-          "(`scope` = 'rule-asset' AND `rule` IS NOT NULL AND `assetPath` IS NOT NULL)"
+        oneOf('scope', ['fingerprint', 'rule-asset']),
+        `("scope" = 'fingerprint' AND "fingerprint" IS NOT NULL) OR ` +
+          `("scope" = 'rule-asset' AND "rule" IS NOT NULL AND "assetPath" IS NOT NULL)`
       ),
       allowNull: false
     },
     fingerprint: { type: DataTypes.STRING(32), allowNull: true },
     rule: { type: DataTypes.STRING(64), allowNull: true },
     assetPath: { type: DataTypes.STRING(1024), allowNull: true },
-    reason: { type: checked('TEXT', "`reason` <> ''"), allowNull: false },
+    reason: { type: checked('TEXT', `"reason" <> ''`), allowNull: false },
     expiresAt: optionalDate,
     status: {
       type: oneOf('status', ['proposed', 'approved', 'rejected', 'revoked'], 10),
@@ -210,7 +216,7 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
     node: { type: DataTypes.STRING(1024), allowNull: true },
     keyFirst: { type: DataTypes.INTEGER, allowNull: true },
     keyLast: {
-      type: checked('INTEGER', '`keyLast` IS NULL OR `keyFirst` IS NULL OR `keyLast` >= `keyFirst`'),
+      type: checked('INTEGER', '"keyLast" IS NULL OR "keyFirst" IS NULL OR "keyLast" >= "keyFirst"'),
       allowNull: true
     },
     timeSeconds: { type: DataTypes.DOUBLE, allowNull: true },
@@ -269,7 +275,7 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
 
   await queryInterface.createTable('invitations', {
     id,
-    email: { type: checked('VARCHAR(320)', '`email` = lower(trim(`email`))'), allowNull: false },
+    email: { type: checked('VARCHAR(320)', '"email" = lower(trim("email"))'), allowNull: false },
     role: { type: oneOf('role', userRoles), allowNull: false },
     tokenHash: { type: sha256Hex('tokenHash'), allowNull: false, unique: true },
     invitedById: owner('users', true),
@@ -298,4 +304,19 @@ export async function down(queryInterface: QueryInterface): Promise<void> {
   ]) {
     await queryInterface.dropTable(table);
   }
+  if (queryInterface.sequelize.getDialect() === 'postgres') {
+    await queryInterface.sequelize.query(`DROP FUNCTION IF EXISTS ${POSTGRES_JSON_CHECK_FUNCTION}(text)`);
+  }
+}
+
+/**
+ * PostgreSQL 15 has no `IS JSON` (16 does) and a CHECK cannot catch a failed cast, so a small
+ * function tries the cast and answers false instead of raising.
+ */
+async function createJsonCheckFunction(queryInterface: QueryInterface): Promise<void> {
+  await queryInterface.sequelize.query(
+    `CREATE OR REPLACE FUNCTION ${POSTGRES_JSON_CHECK_FUNCTION}(candidate text) RETURNS boolean ` +
+      'LANGUAGE plpgsql IMMUTABLE AS $body$ BEGIN PERFORM candidate::json; RETURN true; ' +
+      'EXCEPTION WHEN others THEN RETURN false; END $body$'
+  );
 }

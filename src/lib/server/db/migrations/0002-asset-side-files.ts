@@ -5,13 +5,14 @@
  * asset back from its blobs through them.
  */
 import { DataTypes, type QueryInterface } from 'sequelize';
-import { checked } from './column-types';
+import { columnTypes } from './column-types';
 
 /** Name recorded in the migration table once applied. */
 export const name = '0002-asset-side-files';
 
 /** Creates `asset_side_files`, one row per (asset, side-file path). */
 export async function up(queryInterface: QueryInterface): Promise<void> {
+  const { checked, onlyCharacters } = columnTypes(queryInterface);
   await queryInterface.createTable('asset_side_files', {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true, allowNull: false },
     assetId: {
@@ -21,11 +22,11 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
       onDelete: 'CASCADE'
     },
     /** Path relative to the asset's folder, as the asset's URI resolved. */
-    path: { type: checked('VARCHAR(1024)', "`path` <> ''"), allowNull: false },
+    path: { type: checked('VARCHAR(1024)', `"path" <> ''`), allowNull: false },
     contentHash: {
       type: checked(
         'CHAR(64)',
-        "`contentHash` IS NULL OR (length(`contentHash`) = 64 AND `contentHash` NOT GLOB '*[^0-9a-f]*')"
+        `"contentHash" IS NULL OR (length("contentHash") = 64 AND ${onlyCharacters('contentHash', '0-9a-f')})`
       ),
       allowNull: true
     }

@@ -5,13 +5,14 @@
  * (the server catches its own mail when no SMTP server is configured).
  */
 import { DataTypes, type QueryInterface } from 'sequelize';
-import { checked, oneOf } from './column-types';
+import { columnTypes, quoted } from './column-types';
 
 /** Name recorded in the migration table once applied. */
 export const name = '0003-mail-notifications';
 
 /** Adds the notification columns and creates `caught_mails`. */
 export async function up(queryInterface: QueryInterface): Promise<void> {
+  const { checked, oneOf } = columnTypes(queryInterface);
   await queryInterface.addColumn('projects', 'notifySeverity', {
     type: oneOf('notifySeverity', ['error', 'warning', 'info'], 8),
     allowNull: false,
@@ -42,7 +43,7 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
     headersText: { type: DataTypes.TEXT, allowNull: false },
     textBody: { type: DataTypes.TEXT, allowNull: true },
     htmlBody: { type: DataTypes.TEXT, allowNull: true },
-    byteLength: { type: checked('INTEGER', '`byteLength` >= 0'), allowNull: false },
+    byteLength: { type: checked('INTEGER', '"byteLength" >= 0'), allowNull: false },
     receivedAt: { type: DataTypes.DATE, allowNull: false }
   });
   await queryInterface.addIndex('caught_mails', ['receivedAt'], { name: 'caught_mails_received' });
@@ -53,7 +54,11 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
 export async function down(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.dropTable('caught_mails');
   // Raw DROP COLUMN: Sequelize's removeColumn rebuilds SQLite tables and would lose their CHECKs.
-  await queryInterface.sequelize.query('ALTER TABLE `project_memberships` DROP COLUMN `isMailSubscribed`');
-  await queryInterface.sequelize.query('ALTER TABLE `projects` DROP COLUMN `notifyOnFixed`');
-  await queryInterface.sequelize.query('ALTER TABLE `projects` DROP COLUMN `notifySeverity`');
+  for (const [table, column] of [
+    ['project_memberships', 'isMailSubscribed'],
+    ['projects', 'notifyOnFixed'],
+    ['projects', 'notifySeverity']
+  ]) {
+    await queryInterface.sequelize.query(`ALTER TABLE ${quoted(table)} DROP COLUMN ${quoted(column)}`);
+  }
 }
