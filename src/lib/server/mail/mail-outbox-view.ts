@@ -178,7 +178,8 @@ function headerLinesOf(headersText: string): { name: string; value: string }[] {
   const headers: { name: string; value: string }[] = [];
   for (const line of headersText.split(/\r?\n/)) {
     if (/^[ \t]/.test(line) && headers.length > 0) {
-      headers[headers.length - 1].value += ` ${line.trim()}`;
+      const last = headers[headers.length - 1];
+      last.value = `${last.value} ${line.trim()}`.trim();
       continue;
     }
     const colon = line.indexOf(':');
