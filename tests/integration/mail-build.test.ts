@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { resetConfig } from '$lib/server/config';
 import { Asset, MailMessage, User } from '$lib/server/db/models';
+import { saveMailSettings } from '$lib/server/mail/mail-settings';
 import { signUserToken } from '$lib/server/mail/signed-user-token';
 import { diverGlb } from './api-fixtures';
 import {
@@ -50,12 +51,10 @@ beforeAll(async () => {
     { user: mutedViewer, role: 'viewer' }
   ]);
   secret = seeded.secret;
-  await User.update({ mailPreference: 'base' }, { where: { id: baseOnlyLead.id } });
-  await User.update({ mailPreference: 'none' }, { where: { id: mutedViewer.id } });
-  await server.database.sequelize.query(
-    'UPDATE project_memberships SET isMailSubscribed = 1 WHERE userId IN (?) AND projectId = ?',
-    { replacements: [[subscriber.id, mutedViewer.id], seeded.project.id] }
-  );
+  const projectIds = [seeded.project.id];
+  await saveMailSettings(baseOnlyLead.id, { preference: 'base', projectIds: [] });
+  await saveMailSettings(subscriber.id, { preference: 'all', projectIds });
+  await saveMailSettings(mutedViewer.id, { preference: 'none', projectIds });
   process.env.AUTH_SECRET = AUTH_SECRET;
   resetConfig();
 }, 240_000);

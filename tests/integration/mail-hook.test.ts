@@ -11,6 +11,7 @@ import { Asset, Build, MailMessage, Project, ProjectMembership, User } from '$li
 import type { BaselineStatus } from '$lib/server/ingest/compare-with-baseline';
 import type { BuildPlan } from '$lib/server/ingest/plan-build';
 import { queueBuildMail } from '$lib/server/mail/build-mail-hook';
+import { saveMailSettings } from '$lib/server/mail/mail-settings';
 import {
   getProjectNotify,
   PROJECT_NOTIFY_DEFAULTS,
@@ -151,14 +152,12 @@ describe('build-mail hook', () => {
   });
 
   it('mails subscribed members too', async () => {
-    await ProjectMembership.sequelize!.query('UPDATE project_memberships SET isMailSubscribed = 1 WHERE userId = ?', {
-      replacements: [artist.id]
-    });
+    await saveMailSettings(artist.id, { preference: 'all', projectIds: [project.id] });
     try {
       await storeBuild([{ severity: 'error', status: 'new' }], { verdict: 'fail' });
       expect(await mailKinds()).toEqual([`build-regression ${artist.email}`, `build-regression ${lead.email}`]);
     } finally {
-      await ProjectMembership.sequelize!.query('UPDATE project_memberships SET isMailSubscribed = 0');
+      await saveMailSettings(artist.id, { preference: 'all', projectIds: [] });
     }
   });
 

@@ -67,7 +67,7 @@ export async function list(options: { status?: MailStatus; limit?: number } = {}
     status: MailStatus;
     count: number;
   }[];
-  for (const { status, count } of grouped) counts[status] = count;
+  for (const { status, count } of grouped) counts[status] = Number(count);
   const rows = await MailMessage.findAll({
     where: options.status ? { status: options.status } : {},
     attributes: { exclude: ['textBody', 'htmlBody', 'headersJson'] },

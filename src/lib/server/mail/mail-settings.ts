@@ -47,11 +47,12 @@ export async function getMailSettings(userId: number): Promise<MailSettings> {
     slug: string;
     name: string;
     role: ProjectRole;
-    isMailSubscribed: number;
+    isMailSubscribed: number | boolean;
   }>(
-    `SELECT p.id AS projectId, p.slug AS slug, p.name AS name, m.role AS role, m.isMailSubscribed AS isMailSubscribed
-       FROM project_memberships m JOIN projects p ON p.id = m.projectId
-      WHERE m.userId = ? ORDER BY p.name`,
+    `SELECT p."id" AS "projectId", p."slug" AS "slug", p."name" AS "name", m."role" AS "role",
+            m."isMailSubscribed" AS "isMailSubscribed"
+       FROM "project_memberships" m JOIN "projects" p ON p."id" = m."projectId"
+      WHERE m."userId" = ? ORDER BY p."name"`,
     { replacements: [userId], type: QueryTypes.SELECT }
   );
   return {
@@ -72,14 +73,17 @@ export async function saveMailSettings(userId: number, settings: z.output<typeof
   const sequelize = sequelizeOf();
   await sequelize.transaction(async (transaction) => {
     await User.update({ mailPreference: settings.preference }, { where: { id: userId }, transaction });
-    await sequelize.query('UPDATE project_memberships SET isMailSubscribed = 0, updatedAt = ? WHERE userId = ?', {
-      replacements: [new Date(), userId],
-      transaction
-    });
+    await sequelize.query(
+      'UPDATE "project_memberships" SET "isMailSubscribed" = ?, "updatedAt" = ? WHERE "userId" = ?',
+      {
+        replacements: [false, new Date(), userId],
+        transaction
+      }
+    );
     if (settings.projectIds.length > 0) {
       await sequelize.query(
-        'UPDATE project_memberships SET isMailSubscribed = 1, updatedAt = ? WHERE userId = ? AND projectId IN (?)',
-        { replacements: [new Date(), userId, settings.projectIds], transaction }
+        'UPDATE "project_memberships" SET "isMailSubscribed" = ?, "updatedAt" = ? WHERE "userId" = ? AND "projectId" IN (?)',
+        { replacements: [true, new Date(), userId, settings.projectIds], transaction }
       );
     }
   });

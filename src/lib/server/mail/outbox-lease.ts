@@ -44,7 +44,7 @@ export async function claimNext(owner: string, now: Date, leaseMs: number): Prom
         status: 'sending',
         leaseOwner: owner,
         leaseUntil: new Date(now.getTime() + leaseMs),
-        attempts: literal('`attempts` + 1') as unknown as number
+        attempts: literal('"attempts" + 1') as unknown as number
       },
       { where: { [Op.and]: [{ id }, dueAt(now)] } }
     );

@@ -2,7 +2,9 @@
  * A project's mail setting: from which severity new findings are e-mailed to its leads and
  * subscribers, and whether a fix on the base branch is e-mailed too. Columns `notifySeverity`
  * and `notifyOnFixed` of `projects` (migration 0003); defaults `error` and true. The project
- * settings page edits it with {@link setProjectNotify}.
+ * settings page edits it with {@link setProjectNotify}. Raw SQL (quoted identifiers, boolean
+ * parameters, portable between SQLite and PostgreSQL) because the Project model does not carry
+ * these columns.
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import { z } from 'zod';
@@ -45,7 +47,7 @@ interface NotifyRow {
  */
 export async function getProjectNotify(projectId: number, transaction?: Transaction): Promise<ProjectNotify> {
   const rows = await sequelizeOf().query<NotifyRow>(
-    'SELECT `notifySeverity`, `notifyOnFixed` FROM `projects` WHERE `id` = ?',
+    'SELECT "notifySeverity", "notifyOnFixed" FROM "projects" WHERE "id" = ?',
     { replacements: [projectId], type: QueryTypes.SELECT, transaction }
   );
   if (rows.length === 0) throw new NotFoundError('project.not-found', `There is no project ${projectId}.`);
@@ -56,8 +58,8 @@ export async function getProjectNotify(projectId: number, transaction?: Transact
 export async function setProjectNotify(projectId: number, notify: ProjectNotify): Promise<void> {
   const parsed = projectNotifySchema.parse(notify);
   await sequelizeOf().query(
-    'UPDATE `projects` SET `notifySeverity` = ?, `notifyOnFixed` = ?, `updatedAt` = ? WHERE `id` = ?',
-    { replacements: [parsed.severity, parsed.onFixed ? 1 : 0, new Date(), projectId] }
+    'UPDATE "projects" SET "notifySeverity" = ?, "notifyOnFixed" = ?, "updatedAt" = ? WHERE "id" = ?',
+    { replacements: [parsed.severity, parsed.onFixed, new Date(), projectId] }
   );
 }
 
