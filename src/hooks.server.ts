@@ -8,6 +8,7 @@ import { signInRequiredHandle } from '$lib/server/auth/sign-in-required-handle';
 import { userHandle } from '$lib/server/auth/user-handle';
 import { closeDatabase } from '$lib/server/db/instance';
 import { ConfigError } from '$lib/server/errors';
+import { formOriginGuard } from '$lib/server/mail/form-origin-guard';
 import { allowMailLinkPaths } from '$lib/server/mail/mail-link-paths';
 import { startMailService, stopMailService } from '$lib/server/mail/mail-service';
 import { prepareServer } from '$lib/server/startup';
@@ -42,8 +43,12 @@ export const init: ServerInit = async () => {
   }
 };
 
-/** Cookie defaults, rate limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall (mail links pass). */
+/**
+ * Cross-site form check (one-click unsubscribe passes), cookie defaults, rate limit, then Auth.js (`/auth/*`,
+ * `locals.auth`), then `locals.user`, then the sign-in wall (mail links pass).
+ */
 export const handle: Handle = sequence(
+  formOriginGuard,
   cookieDefaultsHandle,
   credentialsCallbackGuard,
   authHandle,

@@ -87,7 +87,12 @@ export function readConfig(env: Record<string, string | undefined> = process.env
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const name = String(issue.path[0]);
-    const shown = name === 'AUTH_SECRET' ? `${String(present[name]).length} characters` : `"${present[name]}"`;
+    const shown =
+      name === 'AUTH_SECRET'
+        ? `${String(present[name]).length} characters`
+        : name === 'SMTP_URL'
+          ? 'a value not shown, as it may hold a password'
+          : `"${present[name]}"`;
     throw new ConfigError(
       'config.invalid',
       `Orientry configuration: ${name} ${issue.message} (got ${shown}). Fix the environment variable or unset it.`,
