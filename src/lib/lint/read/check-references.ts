@@ -14,7 +14,10 @@ export interface ReferenceCheckInput {
   assetPath: string;
   /** Bytes of each buffer, in buffer order; null when the buffer has no data (a meshopt fallback buffer). */
   bufferBytes: readonly (Uint8Array | null)[];
-  /** Largest total the reader may allocate for accessor data and decoded meshopt views. */
+  /**
+   * Largest total the reader may allocate for accessor data and decoded meshopt views, plus the
+   * float32 keys the rules walk for each rotation channel (counted per channel, shared or not).
+   */
   maxDecodedByteLength: number;
 }
 
@@ -214,8 +217,22 @@ export function checkReferences(input: ReferenceCheckInput): void {
         );
       }
       requireIndex(channel.target.node, 'nodes', `${where}.channels[${channelIndex}].target.node`);
+      // The rules walk every key of every rotation channel, and many channels may share one
+      // accessor: each use counts, so a small file cannot multiply the work past the budget.
+      if (channel.target.path === 'rotation') {
+        const sampler = animation.samplers[channel.sampler];
+        spend(
+          keyWorkOf(json.accessors![sampler.input]) + keyWorkOf(json.accessors![sampler.output]),
+          `${where}.channels[${channelIndex}]`
+        );
+      }
     });
   });
+}
+
+/** Bytes of an accessor's elements read as float32, the form the rotation rules walk them in. */
+function keyWorkOf(accessor: { count: number; type: keyof typeof COMPONENTS_PER_ELEMENT }): number {
+  return accessor.count * 4 * COMPONENTS_PER_ELEMENT[accessor.type];
 }
 
 type RequireIndex = (value: number | undefined, kind: 'nodes' | 'meshes' | 'skins' | 'cameras', where: string) => void;

@@ -9,6 +9,7 @@ import type { AssetSource } from '../asset-source';
 import { decodeDataUri } from './decode-data-uri';
 import type { GltfJson } from './gltf-json-schema';
 import { isDataUri, resolveSideFilePath } from './resolve-uri';
+import { shortenForMessage } from './shorten-for-message';
 
 /** The resources map @gltf-transform/core's `readJSON` takes, plus facts the reader needs. */
 export interface LoadedResources {
@@ -114,6 +115,7 @@ function addSideFile(
 }
 
 async function readOneSideFile(source: AssetSource, path: string, where: string): Promise<Uint8Array> {
+  const shown = shortenForMessage(path);
   let bytes: Uint8Array | null;
   try {
     bytes = await source.readSideFile(path);
@@ -121,7 +123,7 @@ async function readOneSideFile(source: AssetSource, path: string, where: string)
     if (isAssetReadError(error)) throw error;
     throw new AssetReadError(
       'asset.side-file-unreadable',
-      `${source.path}: ${where} names "${path}", which could not be read.`,
+      `${source.path}: ${where} names "${shown}", which could not be read.`,
       'Check the side file is present and readable, then run the lint again.',
       { cause: error }
     );
@@ -129,8 +131,8 @@ async function readOneSideFile(source: AssetSource, path: string, where: string)
   if (bytes === null) {
     throw new AssetReadError(
       'asset.side-file-missing',
-      `${source.path}: ${where} names "${path}", which was not provided.`,
-      `Include "${path}" next to the asset (relative to its folder), or embed it in a .glb.`
+      `${source.path}: ${where} names "${shown}", which was not provided.`,
+      `Include "${shown}" next to the asset (relative to its folder), or embed it in a .glb.`
     );
   }
   return bytes;

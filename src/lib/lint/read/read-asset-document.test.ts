@@ -268,6 +268,41 @@ describe('readAssetDocument: damaged and hostile files', () => {
     expect(process.memoryUsage().rss - before).toBeLessThan(64 * 1024 * 1024);
   });
 
+  it('rejects many rotation channels sharing one large accessor, whose keys the rules would walk per channel', async () => {
+    // 2 million zero-filled keys (no buffer view) fit the budget once; 40 channels over them would
+    // cost the rules 40 walks of 2 million keys from a file of a few kilobytes.
+    const json = gltfWithBufferUri(dataUriOf(BUOY_BIN)) as ReturnType<typeof gltfWithBufferUri> & {
+      accessors: object[];
+      animations: object[];
+    };
+    json.accessors.push(
+      { componentType: 5126, count: 2_000_000, type: 'SCALAR' },
+      { componentType: 5126, count: 2_000_000, type: 'VEC4' }
+    );
+    const sharing = {
+      samplers: [{ input: 2, output: 3, interpolation: 'LINEAR' }],
+      channels: [{ sampler: 0, target: { node: 0, path: 'rotation' } }]
+    };
+    const once = structuredClone(json);
+    once.animations.push(sharing);
+    expect(readRotationChannels(await readAssetDocument(sourceFromBytes('buoy.gltf', jsonBytes(once))))).toHaveLength(
+      2
+    );
+    for (let copy = 0; copy < 40; copy++) json.animations.push(sharing);
+    const error = await expectReadError(sourceFromBytes('buoy.gltf', jsonBytes(json)), 'asset.too-large');
+    expect(error.message).toMatch(/animations\[\d+\]\.channels\[0\]/);
+  });
+
+  it('quotes at most 120 characters of a missing side file path', async () => {
+    const longName = `${'x'.repeat(5000)}.bin`;
+    const error = await expectReadError(
+      sourceFromBytes('buoy.gltf', jsonBytes(gltfWithBufferUri(longName))),
+      'asset.side-file-missing'
+    );
+    expect(error.message.length).toBeLessThan(300);
+    expect(error.hint.length).toBeLessThan(300);
+  });
+
   it('rejects a meshopt view claiming a gigabyte decoded size', async () => {
     const json = {
       ...gltfWithBufferUri(dataUriOf(BUOY_BIN)),

@@ -36,9 +36,10 @@ export interface ReadOptions {
    */
   includeImages?: boolean;
   /**
-   * Largest total of decoded accessor and meshopt data, in bytes. Defaults to 256 MiB plus four
-   * times the file's own size: real files decode to about their size, so only claimed counts
-   * far beyond the data present (a damaged or hostile file) hit it.
+   * Largest total of decoded accessor and meshopt data, plus the keys each rotation channel makes
+   * the rules walk, in bytes. Defaults to 256 MiB plus four times the file's own size: real files
+   * decode to about their size, so only claimed counts far beyond the data present, or many
+   * channels sharing one huge accessor (a damaged or hostile file), hit it.
    */
   maxDecodedByteLength?: number;
 }

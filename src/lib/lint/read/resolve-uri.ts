@@ -6,6 +6,7 @@
  * backslashes, drive letters, NUL) is refused here and never reaches the caller.
  */
 import { AssetReadError } from '../asset-read-error';
+import { shortenForMessage as shorten } from './shorten-for-message';
 
 /** True for a `data:` URI (embedded bytes, never a side file). */
 export function isDataUri(uri: string): boolean {
@@ -71,8 +72,4 @@ export function resolveSideFilePath(uri: string, assetPath: string, where: strin
     );
   }
   return segments.join('/');
-}
-
-function shorten(uri: string): string {
-  return uri.length > 120 ? `${uri.slice(0, 117)}...` : uri;
 }
