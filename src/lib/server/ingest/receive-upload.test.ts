@@ -203,6 +203,24 @@ describe('receiveUpload', () => {
     }
   );
 
+  it.each([
+    { what: 'a file being written', fileName: 'chars/kelp.glb' },
+    { what: 'a file already refused for its name', fileName: '../kelp.glb' }
+  ])('answers 400 for a body cut off inside $what, and the cut stream errs into no void', async ({ fileName }) => {
+    // No closing boundary (RFC 7578 §4.1): the parser and the part's own stream both fail.
+    const body =
+      `--cut\r\nContent-Disposition: form-data; name="meta"\r\n\r\n${META}\r\n` +
+      `--cut\r\nContent-Disposition: form-data; name="file"; filename="${fileName}"\r\n\r\nglb bytes`;
+    const request = new Request('http://localhost/x', {
+      method: 'POST',
+      body,
+      headers: { 'content-type': 'multipart/form-data; boundary=cut' }
+    });
+    const failure = await failureOf(receiveUpload(request, folder, INGEST_LIMIT_DEFAULTS));
+    expect(failure.status).toBe(400);
+    expect(['upload.malformed', 'upload.path-invalid']).toContain(failure.code);
+  });
+
   it('accepts files exactly at the per-file and build limits', async () => {
     const parts: [string, string | Blob, string?][] = [
       ['meta', META],

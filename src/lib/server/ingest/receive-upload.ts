@@ -120,11 +120,7 @@ class UploadReceiver {
       parser.on('fieldsLimit', () =>
         this.fail(new ApiError(400, 'upload.too-many-fields', 'The upload has more than 10 form fields besides files.'))
       );
-      parser.on('error', (error) =>
-        this.fail(
-          new ApiError(400, 'upload.malformed', `The multipart body could not be parsed: ${error}`, { cause: error })
-        )
-      );
+      parser.on('error', (error) => this.fail(malformed(error)));
       parser.on('close', resolve);
       body.on('error', (error) => {
         this.fail(bodyFailure(error));
@@ -182,6 +178,10 @@ class UploadReceiver {
   }
 
   private onFile(name: string, stream: Readable, filename: string | undefined): void {
+    // A body cut off mid-part errors the part's stream, possibly before anything reads it (while
+    // its folder is made, or after it was set to be discarded): unheard, that error would end the
+    // process. The parser reports the same cut as its own error, so this only has to listen.
+    stream.on('error', (error) => this.fail(malformed(error)));
     if (this.failure) {
       stream.resume();
       return;
@@ -309,6 +309,10 @@ class UploadMeter extends Transform {
   digest(): string {
     return this.hash.digest('hex');
   }
+}
+
+function malformed(error: unknown): ApiError {
+  return new ApiError(400, 'upload.malformed', `The multipart body could not be parsed: ${error}`, { cause: error });
 }
 
 function unexpectedField(name: string): ApiError {

@@ -3,12 +3,16 @@ import { ApiError } from './api-error';
 import { validateUploadPath } from './upload-path';
 
 describe('validateUploadPath', () => {
-  it.each(['hero.glb', 'chars/hero.gltf', 'chars/textures/hero base.png', 'a/b/c/d/e.bin', 'chars/..hero.bin'])(
-    'accepts the relative path %j unchanged',
-    (path) => {
-      expect(validateUploadPath(path)).toBe(path);
-    }
-  );
+  it.each([
+    'hero.glb',
+    'chars/hero.gltf',
+    'chars/textures/hero base.png',
+    'a/b/c/d/e.bin',
+    'chars/..hero.bin',
+    `chars/${'x'.repeat(251)}.glb`
+  ])('accepts the relative path %j unchanged', (path) => {
+    expect(validateUploadPath(path)).toBe(path);
+  });
 
   it.each([
     { path: '', reason: 'empty' },
@@ -22,7 +26,9 @@ describe('validateUploadPath', () => {
     { path: 'chars/', reason: 'empty segment' },
     { path: 'hero\u0000.glb', reason: 'NUL' },
     { path: 'hero\n.glb', reason: 'control character' },
-    { path: 'a/'.repeat(600) + 'x.glb', reason: 'longer than 1024' }
+    { path: 'a/'.repeat(600) + 'x.glb', reason: 'longer than 1024' },
+    // 'é' is 2 bytes in UTF-8 (RFC 3629), so 128 of them make a 260-byte name, over ext4's 255 (NAME_MAX).
+    { path: `chars/${'é'.repeat(128)}.glb`, reason: 'longer than 255 bytes' }
   ])('refuses $path with a 400 saying it is $reason', ({ path, reason }) => {
     let thrown: unknown;
     try {

@@ -8,10 +8,13 @@ import { ApiError } from './api-error';
 /** Largest accepted path length in characters; deeper trees than this are not real asset folders. */
 const MAX_PATH_LENGTH = 1024;
 
+/** Largest file or folder name in UTF-8 bytes: NAME_MAX of ext4, XFS and most other file systems. */
+const MAX_SEGMENT_BYTES = 255;
+
 /**
  * Checks an uploaded file's relative path and returns it unchanged when it is safe:
  * forward slashes only, no leading slash or drive letter, no `.`/`..`/empty segments, no NUL
- * or other control characters.
+ * or other control characters, no name the file system cannot hold (over 255 bytes).
  *
  * @example validateUploadPath('chars/hero.gltf') → 'chars/hero.gltf'
  * @example validateUploadPath('../etc/passwd') → throws ApiError 400 `upload.path_invalid`
@@ -43,6 +46,9 @@ function pathProblem(path: string): string | null {
     if (segment === '') return 'the path has an empty segment';
     if (segment === '..') return 'the path contains ".."';
     if (segment === '.') return 'the path contains "."';
+    if (Buffer.byteLength(segment) > MAX_SEGMENT_BYTES) {
+      return `a file or folder name is longer than ${MAX_SEGMENT_BYTES} bytes`;
+    }
   }
   return null;
 }
