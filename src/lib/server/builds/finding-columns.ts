@@ -22,23 +22,31 @@ export interface FindingColumns {
   fingerprint: string;
 }
 
-/** The row columns of a finding. */
+/**
+ * The row columns of a finding. Names come from the uploaded file and may hold NUL, which neither
+ * SQLite's inline INSERT text nor PostgreSQL text can carry: it is stored as U+FFFD, the Unicode
+ * replacement character.
+ */
 export function findingColumnsOf(finding: Finding): FindingColumns {
   return {
     assetPath: finding.asset,
     rule: finding.rule,
     severity: finding.severity,
-    animation: finding.animation,
+    animation: storable(finding.animation),
     channel: finding.channel,
-    node: finding.node,
+    node: storable(finding.node),
     keyFirst: finding.keys?.[0] ?? null,
     keyLast: finding.keys?.[1] ?? null,
     timeSeconds: finding.time,
     valuesJson: Object.keys(finding.values).length === 0 ? null : JSON.stringify(finding.values),
-    message: finding.message,
-    hint: finding.hint,
+    message: storable(finding.message),
+    hint: storable(finding.hint),
     fingerprint: finding.fingerprint
   };
+}
+
+function storable<T extends string | null>(text: T): T {
+  return (text === null ? null : text.replaceAll('\u0000', '\ufffd')) as T;
 }
 
 /** The finding a stored row holds. */
