@@ -1,7 +1,7 @@
 /**
  * Collects what one pass over a channel finds: (mark, key) pairs for the rules, and the runs of
  * keys redundant-keys may remove. Grows its arrays by doubling, so it allocates per finding,
- * never per key.
+ * never per key. One builder serves every channel (see channel-digest.ts): `reset` empties it.
  */
 
 /** Marks combine as bit flags; see MARK in channel-digest.ts. */
@@ -12,6 +12,13 @@ export class DigestBuilder {
   /** (first, last) key pairs of runs redundant-keys may remove. */
   runs: Int32Array = new Int32Array(16);
   runCount = 0;
+
+  /** Forgets every mark and run, keeping the grown arrays for the next channel. */
+  reset(): void {
+    this.markCount = 0;
+    this.flags = 0;
+    this.runCount = 0;
+  }
 
   /** Records `mark` bits at `keyIndex`; calls must come in ascending key order. */
   mark(mark: number, keyIndex: number): void {
