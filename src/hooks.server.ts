@@ -12,6 +12,7 @@ import { formOriginGuard } from '$lib/server/mail/form-origin-guard';
 import { allowMailLinkPaths } from '$lib/server/mail/mail-link-paths';
 import { startMailService, stopMailService } from '$lib/server/mail/mail-service';
 import { prepareServer } from '$lib/server/startup';
+import { tokenFailureGuard } from '$lib/server/tokens/token-failure-guard';
 
 /**
  * Runs once before the server takes requests: checks configuration and the data folder,
@@ -44,11 +45,12 @@ export const init: ServerInit = async () => {
 };
 
 /**
- * Cross-site form check (one-click unsubscribe passes), cookie defaults, rate limit, then Auth.js (`/auth/*`,
- * `locals.auth`), then `locals.user`, then the sign-in wall (mail links pass).
+ * Cross-site form check (one-click unsubscribe passes), the refused-token brake, cookie defaults, sign-in rate
+ * limit, then Auth.js (`/auth/*`, `locals.auth`), then `locals.user`, then the sign-in wall (mail links pass).
  */
 export const handle: Handle = sequence(
   formOriginGuard,
+  tokenFailureGuard,
   cookieDefaultsHandle,
   credentialsCallbackGuard,
   authHandle,
