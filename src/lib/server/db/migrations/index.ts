@@ -6,6 +6,7 @@ import type { QueryInterface } from 'sequelize';
 import * as initial from './0001-initial';
 import * as assetSideFiles from './0002-asset-side-files';
 import * as mailNotifications from './0003-mail-notifications';
+import * as longFindingNames from './0004-long-finding-names';
 
 /** One schema change: a unique name (stored once applied) and how to apply and undo it. */
 export interface Migration {
@@ -14,4 +15,4 @@ export interface Migration {
   down(queryInterface: QueryInterface): Promise<void>;
 }
 
-export const MIGRATIONS: readonly Migration[] = [initial, assetSideFiles, mailNotifications];
+export const MIGRATIONS: readonly Migration[] = [initial, assetSideFiles, mailNotifications, longFindingNames];
