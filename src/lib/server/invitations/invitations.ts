@@ -1,8 +1,9 @@
 /**
  * Invitations: how a new person gets an account. An admin invites an e-mail address with a
  * role; the link `/invite/<token>` lets its owner set a name and password once, before it
- * expires. Only the SHA-256 of the token is stored, so the link is shown once at creation
- * (until the mail layer sends it). Import as a namespace: `invitations.create(...)`.
+ * expires. Only the SHA-256 of the token is stored, so the link is shown once at creation, and
+ * e-mailed through the mail outbox when the caller names the link's origin. Import as a
+ * namespace: `invitations.create(...)`.
  */
 import crypto from 'node:crypto';
 import type { Transaction } from 'sequelize';
@@ -11,6 +12,7 @@ import { USER_ROLES, type UserRole } from '../../types/roles';
 import { hashPassword } from '../auth/password';
 import { Invitation, User } from '../db/models';
 import { InputError } from '../errors';
+import { queueInvitationMail } from '../mail/invitation-mail';
 
 /** How long a link stays valid: a week covers a holiday weekend without leaving links around for months. */
 export const INVITATION_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
@@ -80,13 +82,15 @@ export type InvitationLookup =
   | { state: 'accepted' | 'expired' | 'unknown' };
 
 /**
- * Invites `email` with `role`.
+ * Invites `email` with `role`. With `mail.linkOrigin` (e.g. `https://orientry.example`) the
+ * invitation e-mail is queued in the same transaction as the invitation.
  * @throws InputError (field `email`) when an account already uses the address.
  */
 export async function create(
   input: z.output<typeof inviteSchema>,
   invitedById: number,
-  now: Date = new Date()
+  now: Date = new Date(),
+  mail: { linkOrigin?: string } = {}
 ): Promise<CreatedInvitation> {
   if (await User.findOne({ where: { email: input.email } })) {
     throw new InputError('invitation.account-exists', `An account already uses ${input.email}.`, {
@@ -94,12 +98,34 @@ export async function create(
     });
   }
   const token = `inv_${crypto.randomBytes(32).toString('base64url')}`;
-  const invitation = await Invitation.create({
-    email: input.email,
-    role: input.role,
-    tokenHash: hashToken(token),
-    invitedById,
-    expiresAt: new Date(now.getTime() + INVITATION_LIFETIME_MS)
+  const sequelize = Invitation.sequelize;
+  if (!sequelize) throw new Error('The Invitation model is not bound to a database; open the database first.');
+  const invitation = await sequelize.transaction(async (transaction) => {
+    const created = await Invitation.create(
+      {
+        email: input.email,
+        role: input.role,
+        tokenHash: hashToken(token),
+        invitedById,
+        expiresAt: new Date(now.getTime() + INVITATION_LIFETIME_MS)
+      },
+      { transaction }
+    );
+    if (mail.linkOrigin) {
+      const inviter = await User.findByPk(invitedById, { attributes: ['name'], transaction });
+      await queueInvitationMail(
+        {
+          invitationId: created.id,
+          email: created.email,
+          role: created.role,
+          invitedBy: inviter?.name ?? null,
+          link: `${mail.linkOrigin}/invite/${token}`,
+          expiresAt: created.expiresAt
+        },
+        { transaction }
+      );
+    }
+    return created;
   });
   return {
     id: invitation.id,

@@ -23,7 +23,7 @@ export const actions: Actions = {
     if (!parsed.success)
       return fail(400, { form: 'invite' as const, fieldErrors: fieldErrorsOf(parsed.error), values });
     try {
-      const invitation = await invitations.create(parsed.data, admin.id);
+      const invitation = await invitations.create(parsed.data, admin.id, new Date(), { linkOrigin: url.origin });
       return {
         form: 'invite' as const,
         invitation: {
