@@ -3,13 +3,13 @@ import nodemailer from 'nodemailer';
 import { caughtMails } from '$lib/server/mail/caught-mail';
 import { startMailCatcher, type MailCatcher } from '$lib/server/mail/mail-catcher';
 import * as outboxView from '$lib/server/mail/mail-outbox-view';
-import { openTempDatabase, type TempDatabase } from './temp-database';
+import { openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
 
-let temp: TempDatabase;
+let temp: DatabaseUnderTest;
 let catcher: MailCatcher;
 
 beforeAll(async () => {
-  temp = await openTempDatabase();
+  temp = await openDatabaseUnderTest();
   catcher = await startMailCatcher({ maxByteLength: 64 * 1024 });
 });
 afterAll(async () => {

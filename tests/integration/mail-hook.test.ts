@@ -18,9 +18,9 @@ import {
   projectNotifySchema,
   setProjectNotify
 } from '$lib/server/mail/project-notify';
-import { openTempDatabase, type TempDatabase } from './temp-database';
+import { openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
 
-let temp: TempDatabase;
+let temp: DatabaseUnderTest;
 let project: Project;
 let lead: User;
 let artist: User;
@@ -28,7 +28,7 @@ let artist: User;
 beforeAll(async () => {
   process.env.AUTH_SECRET = 'hook-test-secret-that-is-at-least-32-characters';
   resetConfig();
-  temp = await openTempDatabase();
+  temp = await openDatabaseUnderTest();
   const passwordHash = await hashPassword('not-used-here');
   lead = await User.create({ email: 'tomasz@lanternfish.example', name: 'Tomasz', role: 'lead', passwordHash });
   artist = await User.create({ email: 'juno@lanternfish.example', name: 'Juno', role: 'artist', passwordHash });

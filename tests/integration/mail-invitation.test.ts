@@ -6,13 +6,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashPassword } from '$lib/server/auth/password';
 import { Invitation, MailMessage, User } from '$lib/server/db/models';
 import * as invitations from '$lib/server/invitations/invitations';
-import { openTempDatabase, type TempDatabase } from './temp-database';
+import { openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
 
-let temp: TempDatabase;
+let temp: DatabaseUnderTest;
 let admin: User;
 
 beforeAll(async () => {
-  temp = await openTempDatabase();
+  temp = await openDatabaseUnderTest();
   admin = await User.create({
     email: 'wren@lanternfish.example',
     name: 'Wren <b>Halloway</b>',

@@ -6,14 +6,14 @@ import { MailWorker, type MailWorkerOptions } from '$lib/server/mail/mail-worker
 import * as outbox from '$lib/server/mail/outbox';
 import { claimNext } from '$lib/server/mail/outbox-lease';
 import { startSmtpSink, type SmtpSink } from './mail-smtp-sink';
-import { openTempDatabase, type TempDatabase } from './temp-database';
+import { openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
 
-let temp: TempDatabase;
+let temp: DatabaseUnderTest;
 const sinks: SmtpSink[] = [];
 const workers: MailWorker[] = [];
 
 beforeAll(async () => {
-  temp = await openTempDatabase();
+  temp = await openDatabaseUnderTest();
 });
 afterAll(async () => {
   await temp.remove();
