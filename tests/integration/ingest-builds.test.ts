@@ -224,6 +224,31 @@ describe('POST /api/v1/projects/{project}/builds', () => {
     expect(await Asset.count({ where: { buildId: answers[0].body.build.id } })).toBe(2);
   });
 
+  it.each([
+    { order: 'after', jointName: 'Lantern' },
+    { order: 'before', jointName: 'Anchor' }
+  ])('lints a .gltf with its .bin when the .bin arrives $order it', async ({ order, jointName }) => {
+    // Assets are linted while the upload still arrives; a .gltf linted before its .bin is in must
+    // be linted again once it is, not reported as missing its buffer.
+    const prop = await diverGltf({ jointName, binName: 'prop.bin' });
+    const gltf = { path: 'props/prop.gltf', bytes: prop.gltf };
+    const bin = { path: 'props/prop.bin', bytes: prop.bin };
+    const { status, body } = await submit(order === 'after' ? [gltf, bin] : [bin, gltf], {
+      branch: `feature/bin-${order}`
+    });
+    expect(status).toBe(201);
+    expect(body.build).toMatchObject({ verdict: 'pass', assetCount: 1, counts: zeroCounts });
+    const [asset] = await Asset.findAll({ where: { buildId: body.build.id } });
+    expect(asset.unreadable).toBe(false);
+    const [sideFiles] = await server.database.sequelize.query(
+      'SELECT path, contentHash FROM asset_side_files WHERE assetId = ?',
+      { replacements: [asset.id] }
+    );
+    expect(sideFiles).toEqual([
+      { path: 'prop.bin', contentHash: crypto.createHash('sha256').update(prop.bin).digest('hex') }
+    ]);
+  });
+
   it('gives a .gltf whose buffer was not sent one unreadable-asset error', async () => {
     const buoy = await diverGltf({ binName: 'buoy.bin' });
     const { body } = await submit([{ path: 'props/buoy.gltf', bytes: buoy.gltf }], { branch: 'feature/missing-bin' });

@@ -57,7 +57,7 @@ async function submit(
  * Sends the head of an upload and the first bytes of its body, then waits for an answer without
  * ever sending the rest: only a server that answers before reading the body answers at all.
  */
-async function postHeadOnly(headerKey: string): Promise<{ status: number; connection: string; body: string }> {
+async function postHeadOnly(headerKey: string): Promise<{ status: number; body: string }> {
   const boundary = '----orientry-early-answer';
   const url = new URL(`${server.url}/api/v1/projects/tidewatch/builds`);
   return new Promise((resolve, reject) => {
@@ -89,11 +89,56 @@ async function postHeadOnly(headerKey: string): Promise<{ status: number; connec
       response.on('end', () => {
         clearTimeout(timer);
         request.destroy();
-        resolve({ status: response.statusCode!, connection: String(response.headers.connection), body });
+        resolve({ status: response.statusCode!, body });
       });
     });
     request.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="chars/huge.glb"\r\n\r\n`);
     request.write(Buffer.alloc(64 * 1024, 7));
+  });
+}
+
+/**
+ * Posts `body` in full with Node's http client, which (unlike fetch) keeps writing after an early
+ * answer. Resolves once the answer has arrived and the body is written, or after 15 s.
+ */
+async function sendWhole(
+  body: Buffer,
+  headers: Record<string, string>
+): Promise<{ status: number; buildId: number; isBodyWritten: boolean }> {
+  const url = new URL(`${server.url}/api/v1/projects/tidewatch/builds`);
+  return new Promise((resolve, reject) => {
+    const request = http.request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers });
+    let answer: { status: number; buildId: number } | null = null;
+    let isBodyWritten = false;
+    const settle = () => {
+      if (answer && isBodyWritten) {
+        clearTimeout(timer);
+        resolve({ ...answer, isBodyWritten });
+      }
+    };
+    const timer = setTimeout(() => {
+      request.destroy();
+      if (answer) resolve({ ...answer, isBodyWritten });
+      else reject(new Error('No answer within 15 s.'));
+    }, 15_000);
+    request.on('error', (error) => {
+      clearTimeout(timer);
+      reject(error);
+    });
+    request.on('finish', () => {
+      isBodyWritten = true;
+      settle();
+    });
+    request.on('response', (response) => {
+      let text = '';
+      response.setEncoding('utf8');
+      response.on('data', (chunk: string) => (text += chunk));
+      response.on('end', () => {
+        answer = { status: response.statusCode!, buildId: (JSON.parse(text) as BuildAnswer).build.id };
+        settle();
+      });
+    });
+    request.end(body);
   });
 }
 
@@ -107,13 +152,29 @@ describe('Idempotency-Key header', () => {
     expect((await Build.findByPk(storedId))?.idempotencyKey).toBe('ci-job-5101');
   });
 
-  it('answers 200 with the stored build before the body is read, and closes the connection', async () => {
+  it('answers 200 with the stored build before the body is read', async () => {
     const before = await countBuildRows(server.database);
     const answer = await postHeadOnly('ci-job-5101');
     expect(answer.status).toBe(200);
-    expect(answer.connection).toBe('close');
     expect((JSON.parse(answer.body) as BuildAnswer).build.id).toBe(storedId);
     expect(await countBuildRows(server.database)).toEqual(before);
+  });
+
+  it('reads and drops the rest of the body, so a client that keeps sending after the answer finishes cleanly', async () => {
+    const boundary = '----orientry-keep-sending';
+    // Far more than socket buffers hold, so the client can finish writing only if the server reads on.
+    const body = Buffer.concat([
+      Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="chars/big.glb"\r\n\r\n`),
+      Buffer.alloc(32 * 1024 * 1024, 3),
+      Buffer.from(`\r\n--${boundary}--\r\n`)
+    ]);
+    const answer = await sendWhole(body, {
+      authorization: `Bearer ${secret}`,
+      origin: server.url,
+      'idempotency-key': 'ci-job-5101',
+      'content-type': `multipart/form-data; boundary=${boundary}`
+    });
+    expect(answer).toEqual({ status: 200, buildId: storedId, isBodyWritten: true });
   });
 
   it('answers a repeated whole upload from the header alone, the same as from meta', async () => {

@@ -1,8 +1,8 @@
 /**
- * Lints the assets of a received upload, one at a time so only one file's bytes are in memory:
- * `.glb` and `.gltf` files are assets, everything else is a side file they may read. An asset
- * outside the policy's include/exclude globs is skipped, and one whose stored twin matches
- * (see find-reusable-lint.ts) takes over that lint instead of running it again.
+ * Lints one received asset of an upload: `.glb` and `.gltf` files are assets, everything else
+ * is a side file they may read. An asset whose stored twin matches (see find-reusable-lint.ts)
+ * takes over that lint instead of running it again; an asset outside the policy's
+ * include/exclude globs is skipped. Only one file's bytes are in memory at a time.
  *
  * No Draco decoder is passed to the library: rotation rules never look at geometry, and without
  * the decoder the reader skips compressed geometry and reads animations, nodes and skins as
@@ -10,7 +10,6 @@
  */
 import fs from 'node:fs';
 import { lintAsset } from '../../lint/lint-asset';
-import { isAssetIncluded } from '../../lint/asset-filter';
 import type { AssetReport } from '../../lint/lint-report';
 import type { Policy } from '../../lint/policy';
 import { findReusableLint } from './find-reusable-lint';
@@ -32,53 +31,41 @@ export function isAssetFile(uploadPath: string): boolean {
   return /\.(glb|gltf)$/i.test(uploadPath);
 }
 
-/** Lints (or reuses the lint of) every asset of the upload, in path order. */
-export async function lintUpload(
-  files: readonly ReceivedFile[],
+/**
+ * Reuses a stored lint of the asset or lints it now, reading side files from `filesFolder`.
+ * @param digestOf the SHA-256 of a received file by its upload-relative path; undefined for a
+ *   file not (yet) received. Every side file the result depends on is looked up through it.
+ */
+export async function lintReceivedAsset(
+  file: ReceivedFile,
   filesFolder: string,
   policy: Policy,
-  policyVersion: string
-): Promise<LintedAsset[]> {
-  const digests = new Map(files.map((file) => [file.path, file.sha256]));
-  const digestOf = (uploadPath: string) => digests.get(uploadPath);
-  const assets = files.filter((file) => isAssetFile(file.path)).sort((a, b) => compareText(a.path, b.path));
-
-  const linted: LintedAsset[] = [];
-  for (const file of assets) {
-    if (!isAssetIncluded(file.path, policy)) {
-      linted.push({ file, report: skippedReport(file), sideFiles: {}, reusedFromAssetId: null });
-      continue;
-    }
-    const reused = await findReusableLint(file, policyVersion, digestOf);
-    if (reused) {
-      linted.push({
-        file,
-        report: reused.report,
-        sideFiles: reused.sideFiles,
-        reusedFromAssetId: reused.sourceAssetId
-      });
-      continue;
-    }
-    const reader = createSideFileReader(filesFolder, file.path, digestOf);
-    const bytes = await fs.promises.readFile(file.diskPath);
-    const report = await lintAsset({ path: file.path, bytes, readSideFile: reader.readSideFile }, policy);
-    linted.push({ file, report, sideFiles: { ...reader.requested }, reusedFromAssetId: null });
+  policyVersion: string,
+  digestOf: (uploadPath: string) => string | undefined
+): Promise<LintedAsset> {
+  const reused = await findReusableLint(file, policyVersion, digestOf);
+  if (reused) {
+    return { file, report: reused.report, sideFiles: reused.sideFiles, reusedFromAssetId: reused.sourceAssetId };
   }
-  return linted;
+  const reader = createSideFileReader(filesFolder, file.path, digestOf);
+  const bytes = await fs.promises.readFile(file.diskPath);
+  const report = await lintAsset({ path: file.path, bytes, readSideFile: reader.readSideFile }, policy);
+  return { file, report, sideFiles: { ...reader.requested }, reusedFromAssetId: null };
 }
 
-function skippedReport(file: ReceivedFile): AssetReport {
+/** The result for an asset the policy's include/exclude globs leave out. */
+export function skippedAsset(file: ReceivedFile): LintedAsset {
   return {
-    path: file.path,
-    byteLength: file.byteLength,
-    unreadable: false,
-    skipped: true,
-    stats: { animations: 0, rotationChannels: 0, rotationKeys: 0, nodesWithRotation: 0 },
-    findings: []
+    file,
+    report: {
+      path: file.path,
+      byteLength: file.byteLength,
+      unreadable: false,
+      skipped: true,
+      stats: { animations: 0, rotationChannels: 0, rotationKeys: 0, nodesWithRotation: 0 },
+      findings: []
+    },
+    sideFiles: {},
+    reusedFromAssetId: null
   };
-}
-
-/** Code-unit order, the same on every machine (no locale). */
-function compareText(a: string, b: string): number {
-  return a < b ? -1 : a > b ? 1 : 0;
 }

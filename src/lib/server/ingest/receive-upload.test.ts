@@ -221,6 +221,39 @@ describe('receiveUpload', () => {
     expect(['upload.malformed', 'upload.path-invalid']).toContain(failure.code);
   });
 
+  it('answers the per-file limit, not a malformed body, for an oversized file after a received one', async () => {
+    // The meter's refusal also reaches the part's stream and the parser; it must stay a 413.
+    const parts: [string, string | Blob, string?][] = [
+      ['meta', META],
+      ['file', file('x'.repeat(900)), 'a.glb'],
+      ['file', file('x'.repeat(1001)), 'textures/huge.png']
+    ];
+    const failure = await failureOf(receiveUpload(uploadRequest(parts), folder, small));
+    expect([failure.status, failure.code]).toEqual([413, 'limit.file-bytes']);
+    expect(failure.message).toContain('textures/huge.png');
+  });
+
+  it('reports each file as soon as it is received, with its digest, before the upload ends', async () => {
+    const parts: [string, string | Blob, string?][] = [
+      ['meta', META],
+      ['file', file('first'), 'a.glb'],
+      ['file', file('second'), 'b/c.bin']
+    ];
+    const received: { path: string; sha256: string; isUploadDone: boolean }[] = [];
+    let isUploadDone = false;
+    const upload = receiveUpload(uploadRequest(parts), folder, small, {
+      onFileReceived: (file) => received.push({ path: file.path, sha256: file.sha256, isUploadDone })
+    });
+    await upload;
+    isUploadDone = true;
+    // Parts are written side by side, so they may finish in either order.
+    received.sort((a, b) => a.path.localeCompare(b.path));
+    expect(received).toEqual([
+      { path: 'a.glb', sha256: sha256('first'), isUploadDone: false },
+      { path: 'b/c.bin', sha256: sha256('second'), isUploadDone: false }
+    ]);
+  });
+
   it('accepts files exactly at the per-file and build limits', async () => {
     const parts: [string, string | Blob, string?][] = [
       ['meta', META],

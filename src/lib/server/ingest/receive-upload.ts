@@ -45,6 +45,15 @@ export const UPLOAD_FIELDS = { file: 'file', meta: 'meta' } as const;
 /** Bytes beyond the build limit read and discarded after a failure before the connection is dropped. */
 export const DRAIN_EXTRA_BYTES = 64 * 1024 * 1024;
 
+/** Options of {@link receiveUpload}. */
+export interface ReceiveOptions {
+  /**
+   * Called as soon as each file is wholly written and hashed, while later parts still arrive, so
+   * work on it (linting) overlaps the rest of the upload. Must not throw.
+   */
+  onFileReceived?: (file: ReceivedFile) => void;
+}
+
 /**
  * Receives the multipart body of `request` into `filesFolder` (which must exist and be empty).
  * @throws ApiError 400 (content type, missing or unexpected parts, bad paths, duplicates),
@@ -53,7 +62,8 @@ export const DRAIN_EXTRA_BYTES = 64 * 1024 * 1024;
 export async function receiveUpload(
   request: Request,
   filesFolder: string,
-  limits: IngestLimits
+  limits: IngestLimits,
+  options: ReceiveOptions = {}
 ): Promise<ReceivedUpload> {
   const contentType = request.headers.get('content-type') ?? '';
   if (!/^multipart\/form-data\s*;.*boundary=/i.test(contentType)) {
@@ -66,7 +76,7 @@ export async function receiveUpload(
   }
   if (!request.body) throw missingPart(UPLOAD_FIELDS.meta);
 
-  const receiver = new UploadReceiver(filesFolder, limits);
+  const receiver = new UploadReceiver(filesFolder, limits, options.onFileReceived ?? (() => {}));
   await receiver.receive(Readable.fromWeb(request.body as import('node:stream/web').ReadableStream), contentType);
 
   if (receiver.metaText === null) throw missingPart(UPLOAD_FIELDS.meta);
@@ -95,7 +105,8 @@ class UploadReceiver {
 
   constructor(
     private readonly filesFolder: string,
-    private readonly limits: IngestLimits
+    private readonly limits: IngestLimits,
+    private readonly onFileReceived: (file: ReceivedFile) => void
   ) {}
 
   /** Parses the body to its end; rejects with the first failure once the body is consumed. */
@@ -260,7 +271,9 @@ class UploadReceiver {
       if (code === 'EEXIST' || code === 'EISDIR' || code === 'ENOTDIR') throw pathConflict(filePath, error);
       throw error;
     }
-    this.files.push({ path: filePath, diskPath, byteLength: meter.byteLength, sha256: meter.digest() });
+    const received = { path: filePath, diskPath, byteLength: meter.byteLength, sha256: meter.digest() };
+    this.files.push(received);
+    this.onFileReceived(received);
   }
 }
 
@@ -311,7 +324,12 @@ class UploadMeter extends Transform {
   }
 }
 
+/**
+ * The answer for a parser or part-stream error. A limit refusal raised by the meter comes back
+ * this way too (the pipeline destroys the part's stream with it) and stays what it was.
+ */
 function malformed(error: unknown): ApiError {
+  if (error instanceof ApiError) return error;
   return new ApiError(400, 'upload.malformed', `The multipart body could not be parsed: ${error}`, { cause: error });
 }
 

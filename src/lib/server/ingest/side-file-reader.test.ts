@@ -64,6 +64,12 @@ describe('createSideFileReader', () => {
     expect(reader.requested).toEqual({ 'hero.bin': 'a'.repeat(64), 'absent.bin': null, '../props/buoy.bin': null });
   });
 
+  it('reads a file with no digest yet as missing, since its upload has not completed', async () => {
+    const reader = createSideFileReader(files, 'chars/hero.gltf', () => undefined);
+    expect(await reader.readSideFile('hero.bin')).toBeNull();
+    expect(reader.requested).toEqual({ 'hero.bin': null });
+  });
+
   it('reads from the upload root for an asset at the top level', async () => {
     const reader = createSideFileReader(path.join(files, 'chars'), 'hero.gltf', () => 'b'.repeat(64));
     expect(text(await reader.readSideFile('hero.bin'))).toBe('hero buffer');

@@ -2,8 +2,10 @@
  * The `readSideFile` the server gives the lint library for one uploaded asset. It reads only
  * files of this upload, only inside the main file's own folder, and never follows a link out
  * of it: every path is resolved, then resolved again through `realpath`, and checked to stay
- * inside the folder before it is opened. It also records what was asked for, so the server
- * knows exactly which side files an asset's findings depend on.
+ * inside the folder before it is opened. It reads only files whose upload has completed (they
+ * have a digest), so an asset linted while the upload is still arriving never sees half a file.
+ * It also records what was asked for, so the server knows exactly which side files an asset's
+ * findings depend on.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -20,7 +22,8 @@ export interface RecordingSideFileReader {
 
 /**
  * Makes the reader for the asset at `assetPath` (upload-relative) inside `filesFolder`.
- * @param digestOf the SHA-256 of an uploaded file by its upload-relative path, known from receiving it.
+ * @param digestOf the SHA-256 of an uploaded file by its upload-relative path, known once the file
+ *   is wholly received; undefined for a path not (yet) received, which then reads as missing.
  */
 export function createSideFileReader(
   filesFolder: string,
@@ -33,8 +36,11 @@ export function createSideFileReader(
     requested,
     async readSideFile(relativePath: string): Promise<Uint8Array | null> {
       const uploadPath = path.posix.normalize(path.posix.join(assetFolder, relativePath));
-      const bytes = await readInside(path.join(filesFolder, ...assetFolder.split('/')), relativePath);
-      requested[relativePath] = bytes === null ? null : (digestOf(uploadPath) ?? null);
+      const digest = digestOf(uploadPath);
+      // Every file in the folder came from the upload, so one without a digest is absent or still arriving.
+      const bytes =
+        digest === undefined ? null : await readInside(path.join(filesFolder, ...assetFolder.split('/')), relativePath);
+      requested[relativePath] = bytes === null ? null : (digest ?? null);
       return bytes;
     }
   };

@@ -26,12 +26,8 @@ export const POST: RequestHandler = apiHandler(async ({ params, request, url }) 
   }
   // The token is checked before a byte of the body is read.
   await apiTokens.verify(request.headers.get('authorization'), project, 'submit');
-  const { build, isExisting, isBodyUnread } = await ingestBuild(project, request, url.origin);
-  return json(
-    { build: summarizeBuild(build, project.slug, url.origin) },
-    // The unread rest of the body is still on the connection, so it cannot carry another request.
-    { status: isExisting ? 200 : 201, headers: isBodyUnread ? { connection: 'close' } : {} }
-  );
+  const { build, isExisting } = await ingestBuild(project, request, url.origin);
+  return json({ build: summarizeBuild(build, project.slug, url.origin) }, { status: isExisting ? 200 : 201 });
 });
 
 /** Lists the project's builds, paged. */
