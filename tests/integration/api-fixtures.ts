@@ -69,3 +69,35 @@ export async function diverGltf(options: DiverOptions = {}): Promise<{ gltf: Uin
   const gltf = new TextEncoder().encode(JSON.stringify(json));
   return { gltf, bin: resources[binName] };
 }
+
+/**
+ * A GLB with one clip `Tide` of long LINEAR rotation channels about +Y, one per entry of
+ * `keyCounts` (key k at k/30 s turning 0.5° more than key k-1, so keys stay unit length), for
+ * limits on how many keys one answer plots.
+ */
+export async function longClipGlb(keyCounts: readonly number[]): Promise<Uint8Array> {
+  const document = new Document();
+  const buffer = document.createBuffer();
+  const scene = document.createScene('Reef');
+  const animation = document.createAnimation('Tide');
+  keyCounts.forEach((keyCount, index) => {
+    const joint = document.createNode(`Kelp${index}`);
+    scene.addChild(joint);
+    const times = new Float32Array(keyCount);
+    const values = new Float32Array(keyCount * 4);
+    for (let key = 0; key < keyCount; key++) {
+      times[key] = key / 30;
+      values.set(aboutY((key * 0.5) % 360), key * 4);
+    }
+    const sampler = document
+      .createAnimationSampler()
+      .setInput(document.createAccessor().setType('SCALAR').setArray(times).setBuffer(buffer))
+      .setOutput(document.createAccessor().setType('VEC4').setArray(values).setBuffer(buffer))
+      .setInterpolation('LINEAR');
+    animation.addSampler(sampler);
+    animation.addChannel(
+      document.createAnimationChannel().setTargetNode(joint).setTargetPath('rotation').setSampler(sampler)
+    );
+  });
+  return io.writeBinary(document);
+}

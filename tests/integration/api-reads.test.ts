@@ -4,7 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ApiToken, FindingRecord, Waiver } from '$lib/server/db/models';
-import { aboutY, diverGlb, diverGltf } from './api-fixtures';
+import { aboutY, diverGlb, diverGltf, longClipGlb } from './api-fixtures';
 import {
   postBuild,
   seedProject,
@@ -250,6 +250,56 @@ describe('GET builds/{id}/assets/{assetId}/channels', () => {
     // A zero key has no direction: the segments touching it have no speed.
     expect(channels[0].angularSpeed[1]).toBeNull();
     expect(channels[0].angularSpeed[2]).toBeNull();
+  });
+
+  it('answers only the channel named by ?channel=<animation>:<channel>', async () => {
+    const ids = await assetIds(buildIds[0]);
+    const path = `tidewatch/builds/${buildIds[0]}/assets/${ids['props/buoy.gltf']}/channels`;
+    const { channels } = await getJson<Channels>(`${path}?channel=0:0`);
+    expect(channels.map((channel) => channel.nodePath)).toEqual(['/Diver/Float']);
+    await expectError(await get(`${path}?channel=0:7`, viewerCookie), 404, 'channel.not-found');
+    await expectError(await get(`${path}?channel=first`, viewerCookie), 400, 'query.invalid');
+  });
+
+  describe('an asset with more keys than one answer plots', () => {
+    let path: string;
+    beforeAll(async () => {
+      // 210,000 keys on channel 0 and 1,000 on channel 1, past the 200,000-key cap together.
+      const response = await postBuild(
+        server,
+        'harbour-props',
+        harbourSecret,
+        [{ path: 'props/tide-kelp.glb', bytes: await longClipGlb([210_000, 1_000]) }],
+        { branch: 'main' }
+      );
+      expect(response.status).toBe(201);
+      const buildId = ((await response.json()) as { build: { id: number } }).build.id;
+      const detail = await getJson<{ assets: { id: number }[] }>(`harbour-props/builds/${buildId}`, outsiderCookie);
+      path = `harbour-props/builds/${buildId}/assets/${detail.assets[0].id}/channels`;
+    });
+
+    it('refuses the whole asset with 422 channels.too-many-keys saying to ask per channel', async () => {
+      const response = await get(path, outsiderCookie);
+      expect(response.status).toBe(422);
+      const { error } = (await response.json()) as { error: { code: string; message: string } };
+      expect(error.code).toBe('channels.too-many-keys');
+      expect(error.message).toContain('211,000 rotation keys in 2 channels');
+      expect(error.message).toContain('?channel=<animationIndex>:<channelIndex>');
+    });
+
+    it('answers a short channel of it on its own', async () => {
+      const { channels } = await getJson<Channels>(`${path}?channel=0:1`, outsiderCookie);
+      expect(channels).toHaveLength(1);
+      expect(channels[0].times).toHaveLength(1_000);
+    });
+
+    it('refuses a channel that alone is past the cap, naming it and its key count', async () => {
+      const response = await get(`${path}?channel=0:0`, outsiderCookie);
+      expect(response.status).toBe(422);
+      const { error } = (await response.json()) as { error: { code: string; message: string } };
+      expect(error.code).toBe('channels.too-many-keys');
+      expect(error.message).toContain('Channel 0:0 of props/tide-kelp.glb has 210,000 keys');
+    });
   });
 
   it('answers 404 for an asset of another build', async () => {

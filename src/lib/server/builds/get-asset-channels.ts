@@ -1,8 +1,15 @@
 /**
  * One asset's rotation channels as time series for plots: per channel the key times, the four
  * quaternion components, each key's length, the angular speed of each segment, and markers for
- * the findings that point into the channel.
+ * the findings that point into the channel. One answer carries at most {@link MAX_PLOTTED_KEYS}
+ * keys; a longer asset is asked for one channel at a time (`?channel=<animation>:<channel>`).
+ *
+ * Design notes: thinning a long channel to fit was rejected: markers, the key table and the fix
+ * preview index the series by key, so a thinned series would put findings on the wrong keys and
+ * preview fixes over keys that are not neighbours. A clear refusal that names the way out is
+ * safer than a plot that looks right and is not.
  */
+import { z } from 'zod';
 import type { RotationChannel } from '../../lint/read/rotation-channel';
 import { readRotationChannels } from '../../lint/read/read-rotation-channels';
 import { isAssetReadError } from '../../lint/asset-read-error';
@@ -46,6 +53,29 @@ export interface ChannelSeries {
   markers: ChannelMarker[];
 }
 
+/**
+ * Most keys one answer carries, over all its channels: about 140 bytes of JSON per key (seven
+ * numbers), so some 28 MB, as much as a browser tab plots without stalling (common practice).
+ */
+export const MAX_PLOTTED_KEYS = 200_000;
+
+/** Query of the channels route: `channel=<animationIndex>:<channelIndex>` picks one channel. */
+export const assetChannelsQuerySchema = z
+  .object({
+    channel: z
+      .string()
+      .regex(/^\d{1,6}:\d{1,6}$/, 'must be <animationIndex>:<channelIndex>, e.g. 0:3')
+      .transform((text) => {
+        const [animationIndex, channelIndex] = text.split(':').map(Number);
+        return { animationIndex, channelIndex };
+      })
+      .optional()
+  })
+  .strict();
+
+/** The parsed query of the channels route. */
+export type AssetChannelsQuery = z.output<typeof assetChannelsQuerySchema>;
+
 /** The channels of an asset. */
 export interface AssetChannels {
   asset: { id: number; path: string };
@@ -53,10 +83,15 @@ export interface AssetChannels {
 }
 
 /**
- * The rotation channels of asset `assetIdText` of the build.
- * @throws ApiError 404 `asset.not-found`, 422 `asset.unreadable` when the stored file cannot be read.
+ * The rotation channels of asset `assetIdText` of the build, or the one channel `query.channel` names.
+ * @throws ApiError 404 `asset.not-found` or `channel.not-found`, 422 `asset.unreadable` when the
+ *   stored file cannot be read, 422 `channels.too-many-keys` past {@link MAX_PLOTTED_KEYS}.
  */
-export async function getAssetChannels(buildId: number, assetIdText: string): Promise<AssetChannels> {
+export async function getAssetChannels(
+  buildId: number,
+  assetIdText: string,
+  query: AssetChannelsQuery = {}
+): Promise<AssetChannels> {
   const assetId = parseId(assetIdText);
   const asset = assetId === null ? null : await Asset.findOne({ where: { id: assetId, buildId } });
   if (!asset) {
@@ -76,6 +111,7 @@ export async function getAssetChannels(buildId: number, assetIdText: string): Pr
       }
     );
   }
+  channels = pickChannels(asset.path, channels, query);
   const findings = await FindingRecord.findAll({
     where: { buildId, assetId: asset.id, status: ['new', 'unchanged'] },
     order: [['id', 'ASC']]
@@ -84,6 +120,34 @@ export async function getAssetChannels(buildId: number, assetIdText: string): Pr
     asset: { id: asset.id, path: asset.path },
     channels: channels.map((channel) => toSeries(channel, findings))
   };
+}
+
+/** The channels the query asks for, refused when they hold more keys than one answer carries. */
+function pickChannels(assetPath: string, channels: RotationChannel[], query: AssetChannelsQuery): RotationChannel[] {
+  const wanted = query.channel;
+  const picked = wanted
+    ? channels.filter(
+        (channel) => channel.animationIndex === wanted.animationIndex && channel.channelIndex === wanted.channelIndex
+      )
+    : channels;
+  if (wanted && picked.length === 0) {
+    throw new ApiError(
+      404,
+      'channel.not-found',
+      `${assetPath} has no rotation channel ${wanted.animationIndex}:${wanted.channelIndex}. ` +
+        'Leave out ?channel= to list every channel with its animation and channel index.'
+    );
+  }
+  const keyCount = picked.reduce((sum, channel) => sum + channel.keyCount, 0);
+  if (keyCount <= MAX_PLOTTED_KEYS) return picked;
+  const limit = MAX_PLOTTED_KEYS.toLocaleString('en-US');
+  const what = wanted
+    ? `Channel ${wanted.animationIndex}:${wanted.channelIndex} of ${assetPath} has ${keyCount.toLocaleString('en-US')} keys`
+    : `${assetPath} has ${keyCount.toLocaleString('en-US')} rotation keys in ${picked.length} channels`;
+  const next = wanted
+    ? 'Its findings are still listed with the build; run `orientry check` on the file to see every key.'
+    : 'Ask for one channel at a time with ?channel=<animationIndex>:<channelIndex>.';
+  throw new ApiError(422, 'channels.too-many-keys', `${what}, more than the ${limit} one plot answer carries. ${next}`);
 }
 
 /** Plot series of one channel. */
