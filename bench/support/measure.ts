@@ -10,10 +10,16 @@ export async function timeOnce(run: () => unknown): Promise<number> {
   return Number(process.hrtime.bigint() - start) / 1e6;
 }
 
-/** Fastest and median wall time of repeated runs, in milliseconds. */
+/** Fastest and median wall time of repeated runs, and their median CPU time, in milliseconds. */
 export interface Timing {
   minMs: number;
   medianMs: number;
+  /**
+   * Median CPU time of the process (user + system, every thread: GC and compiler threads too).
+   * On a busy machine it moves much less than wall time, which also counts the time the
+   * process waited for a core.
+   */
+  cpuMedianMs: number;
 }
 
 /**
@@ -34,13 +40,19 @@ export async function measureMs(
     await run();
   }
   const times: number[] = [];
+  const cpuTimes: number[] = [];
   for (let index = 0; index < runs; index++) {
     await setup();
     collectGarbage();
+    const cpuBefore = process.cpuUsage();
     times.push(await timeOnce(run));
+    const cpu = process.cpuUsage(cpuBefore);
+    cpuTimes.push((cpu.user + cpu.system) / 1000);
   }
   times.sort((a, b) => a - b);
-  return { minMs: times[0], medianMs: times[Math.floor(times.length / 2)] };
+  cpuTimes.sort((a, b) => a - b);
+  const middle = Math.floor(runs / 2);
+  return { minMs: times[0], medianMs: times[middle], cpuMedianMs: cpuTimes[middle] };
 }
 
 /** Median wall time in milliseconds; see {@link measureMs}. */
@@ -53,9 +65,9 @@ export async function medianMs(
   return (await measureMs(run, runs, warmups, setup)).medianMs;
 }
 
-/** A timing as "median ms (min ms)". */
+/** A timing as "median ms (min …, CPU …)". */
 export function formatTiming(timing: Timing): string {
-  return `${timing.medianMs.toFixed(1)} ms (min ${timing.minMs.toFixed(1)})`;
+  return `${timing.medianMs.toFixed(1)} ms (min ${timing.minMs.toFixed(1)}, CPU ${timing.cpuMedianMs.toFixed(1)})`;
 }
 
 /** Runs a full GC when the process was started with --expose-gc. */
