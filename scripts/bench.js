@@ -1,8 +1,13 @@
 /**
- * Runs the benchmarks (`npm run bench`, or `npm run bench -- engine` for the ones whose name
- * contains "engine"). Each bench/*.bench.ts is bundled with esbuild (`$lib` → src/lib, packages
- * external) into bench-output/, then run in its own `node --expose-gc` process so one bench's heap
- * never skews another's figures. A new bench is a new bench/<name>.bench.ts: nothing to register.
+ * Runs the benchmarks: all of them (`npm run bench`), or those whose file name contains an
+ * argument (`node scripts/bench.js ingest`, `npm run bench -- engine`). Each bench/*.bench.ts is
+ * bundled with esbuild (`$lib` → src/lib, packages external) into bench-output/, then run in its
+ * own `node --expose-gc` process so one bench's heap never skews another's figures. A new bench
+ * is a new bench/<name>.bench.ts: nothing to register.
+ *
+ * - lint-engine: reading and linting one large animated GLB in this process.
+ * - ingest: `orientry submit` of 50 GLBs (about 100 MB) to a local server against `orientry
+ *   check` of the same files; builds the CLI and the app first when needed.
  */
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
