@@ -17,6 +17,7 @@ import { getDatabase } from '../db/instance';
 import { Asset, Build, FindingRecord, type Project } from '../db/models';
 import { assetSideFiles } from './asset-side-file';
 import { runBuildStoredHooks } from './build-stored-hooks';
+import { queueSqliteWrite } from './sqlite-write-queue';
 import type { LintedAsset } from './lint-upload';
 import type { BuildPlan } from './plan-build';
 
@@ -54,73 +55,77 @@ export async function writeBuild(
   const { sequelize } = getDatabase();
   const queryInterface = sequelize.getQueryInterface();
   const lintedByPath = new Map(checked.map((asset) => [asset.file.path, asset]));
-  return sequelize.transaction(async (transaction) => {
-    const build = await Build.create(
-      {
-        ...row,
-        verdict: plan.decision.verdict,
-        verdictReason: plan.decision.reason,
-        errorCount: plan.counts.error,
-        warningCount: plan.counts.warning,
-        infoCount: plan.counts.info,
-        newCount: plan.counts.new,
-        unchangedCount: plan.counts.unchanged,
-        fixedCount: plan.counts.fixed,
-        waivedCount: plan.counts.waived,
-        assetCount: plan.assets.length
-      },
-      { transaction }
-    );
-    const assetRows: Omit<InferCreationAttributes<Asset>, 'id'>[] = plan.assets.map((planned) => ({
-      buildId: build.id,
-      path: planned.report.path,
-      contentHash: lintedByPath.get(planned.report.path)!.file.sha256,
-      byteLength: planned.report.byteLength,
-      policyVersion: row.policyVersion,
-      unreadable: planned.report.unreadable,
-      statsJson: JSON.stringify(planned.report.stats),
-      errorCount: planned.counts.error,
-      warningCount: planned.counts.warning,
-      infoCount: planned.counts.info,
-      worstRule: planned.worstRule
-    }));
-    for (const rows of chunks(assetRows)) await queryInterface.bulkInsert(Asset.getTableName(), rows, { transaction });
-    const stored = await Asset.findAll({ where: { buildId: build.id }, attributes: ['id', 'path'], transaction });
-    const assetIdByPath = new Map(stored.map((asset) => [asset.path, asset.id]));
-
-    const sideFileRows = plan.assets.flatMap((planned) =>
-      Object.entries(lintedByPath.get(planned.report.path)!.sideFiles).map(([sidePath, contentHash]) => ({
-        assetId: assetIdByPath.get(planned.report.path)!,
-        path: sidePath,
-        contentHash
-      }))
-    );
-    const sideFileTable = assetSideFiles().getTableName();
-    for (const rows of chunks(sideFileRows)) await queryInterface.bulkInsert(sideFileTable, rows, { transaction });
-
-    const findingRows: Omit<InferCreationAttributes<FindingRecord>, 'id'>[] = plan.assets.flatMap((planned) =>
-      planned.findings.map(({ finding, status, waiverId }) => ({
-        ...findingColumnsOf(finding),
+  // Queued so concurrent uploads never wait for SQLite's lock inside threadpool threads.
+  return queueSqliteWrite(sequelize, () =>
+    sequelize.transaction(async (transaction) => {
+      const build = await Build.create(
+        {
+          ...row,
+          verdict: plan.decision.verdict,
+          verdictReason: plan.decision.reason,
+          errorCount: plan.counts.error,
+          warningCount: plan.counts.warning,
+          infoCount: plan.counts.info,
+          newCount: plan.counts.new,
+          unchangedCount: plan.counts.unchanged,
+          fixedCount: plan.counts.fixed,
+          waivedCount: plan.counts.waived,
+          assetCount: plan.assets.length
+        },
+        { transaction }
+      );
+      const assetRows: Omit<InferCreationAttributes<Asset>, 'id'>[] = plan.assets.map((planned) => ({
         buildId: build.id,
-        assetId: assetIdByPath.get(planned.report.path)!,
-        status,
-        waived: waiverId !== null,
-        waiverId
-      }))
-    );
-    for (const rows of chunks(findingRows)) {
-      await queryInterface.bulkInsert(FindingRecord.getTableName(), rows, { transaction });
-    }
+        path: planned.report.path,
+        contentHash: lintedByPath.get(planned.report.path)!.file.sha256,
+        byteLength: planned.report.byteLength,
+        policyVersion: row.policyVersion,
+        unreadable: planned.report.unreadable,
+        statsJson: JSON.stringify(planned.report.stats),
+        errorCount: planned.counts.error,
+        warningCount: planned.counts.warning,
+        infoCount: planned.counts.info,
+        worstRule: planned.worstRule
+      }));
+      for (const rows of chunks(assetRows))
+        await queryInterface.bulkInsert(Asset.getTableName(), rows, { transaction });
+      const stored = await Asset.findAll({ where: { buildId: build.id }, attributes: ['id', 'path'], transaction });
+      const assetIdByPath = new Map(stored.map((asset) => [asset.path, asset.id]));
 
-    await runBuildStoredHooks({
-      project,
-      build,
-      plan,
-      transaction,
-      reportUrl: origin + reportPathOf(project.slug, build.id)
-    });
-    return build;
-  });
+      const sideFileRows = plan.assets.flatMap((planned) =>
+        Object.entries(lintedByPath.get(planned.report.path)!.sideFiles).map(([sidePath, contentHash]) => ({
+          assetId: assetIdByPath.get(planned.report.path)!,
+          path: sidePath,
+          contentHash
+        }))
+      );
+      const sideFileTable = assetSideFiles().getTableName();
+      for (const rows of chunks(sideFileRows)) await queryInterface.bulkInsert(sideFileTable, rows, { transaction });
+
+      const findingRows: Omit<InferCreationAttributes<FindingRecord>, 'id'>[] = plan.assets.flatMap((planned) =>
+        planned.findings.map(({ finding, status, waiverId }) => ({
+          ...findingColumnsOf(finding),
+          buildId: build.id,
+          assetId: assetIdByPath.get(planned.report.path)!,
+          status,
+          waived: waiverId !== null,
+          waiverId
+        }))
+      );
+      for (const rows of chunks(findingRows)) {
+        await queryInterface.bulkInsert(FindingRecord.getTableName(), rows, { transaction });
+      }
+
+      await runBuildStoredHooks({
+        project,
+        build,
+        plan,
+        transaction,
+        reportUrl: origin + reportPathOf(project.slug, build.id)
+      });
+      return build;
+    })
+  );
 }
 
 /** `rows` in slices of {@link ROWS_PER_INSERT}. */

@@ -5,6 +5,7 @@
  */
 import { ApiToken, type ApiTokenScope } from '../db/models/api-token';
 import { ApiError } from '../ingest/api-error';
+import { queueSqliteWrite } from '../ingest/sqlite-write-queue';
 import { generateTokenSecret, hashTokenSecret, isTokenSecretShape, secretMatchesHash } from './token-secret';
 
 /** A token as lists show it: never the secret or its hash. */
@@ -100,8 +101,18 @@ export async function verify(
       `Authorization: the API token ${token.prefix}… lacks the "${scope}" scope.`
     );
   }
-  await token.update({ lastUsedAt: new Date() }, { silent: true });
+  await stampUse(token);
   return token;
+}
+
+/** Lists show when a token was last used to the minute; a busy CI token is written at most once a minute. */
+const STAMP_INTERVAL_MS = 60_000;
+
+/** Records the use, queued with ingestion's other SQLite writes (see sqlite-write-queue.ts). */
+async function stampUse(token: ApiToken): Promise<void> {
+  const now = new Date();
+  if (token.lastUsedAt && now.getTime() - token.lastUsedAt.getTime() < STAMP_INTERVAL_MS) return;
+  await queueSqliteWrite(token.sequelize, () => token.update({ lastUsedAt: now }, { silent: true }));
 }
 
 function summarize(token: ApiToken): TokenSummary {
