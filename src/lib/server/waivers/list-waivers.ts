@@ -34,6 +34,8 @@ export interface WaiverView {
   appliedBuildCount: number;
   /** The newest of those builds, or null. */
   lastAppliedBuildId: number | null;
+  /** For a fingerprint waiver: the newest stored finding with that fingerprint, so the hash has a meaning. */
+  finding: { rule: string; assetPath: string; node: string | null } | null;
 }
 
 /** The waiver's display state at `now`. */
@@ -56,7 +58,10 @@ export async function listWaivers(projectId: number, now: Date = new Date()): Pr
     projectId,
     waivers.map((waiver) => waiver.id)
   );
-  return waivers.map((waiver) => toView(waiver, now, applied.get(waiver.id)));
+  const findings = await findLatestFindings(projectId, waivers);
+  return waivers.map((waiver) =>
+    toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined)
+  );
 }
 
 /** One waiver of the project, or null. */
@@ -74,10 +79,16 @@ export async function findWaiver(
   });
   if (!waiver) return null;
   const applied = await countApplications(projectId, [waiver.id]);
-  return toView(waiver, now, applied.get(waiver.id));
+  const findings = await findLatestFindings(projectId, [waiver]);
+  return toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined);
 }
 
-function toView(waiver: Waiver, now: Date, applied?: { count: number; lastBuildId: number }): WaiverView {
+function toView(
+  waiver: Waiver,
+  now: Date,
+  applied?: { count: number; lastBuildId: number },
+  finding?: WaiverView['finding']
+): WaiverView {
   const people = waiver as Waiver & { proposedBy?: User | null; decidedBy?: User | null };
   return {
     id: waiver.id,
@@ -94,8 +105,33 @@ function toView(waiver: Waiver, now: Date, applied?: { count: number; lastBuildI
     decidedBy: people.decidedBy ? { id: people.decidedBy.id, name: people.decidedBy.name } : null,
     decidedAt: waiver.decidedAt?.toISOString() ?? null,
     appliedBuildCount: applied?.count ?? 0,
-    lastAppliedBuildId: applied?.lastBuildId ?? null
+    lastAppliedBuildId: applied?.lastBuildId ?? null,
+    finding: finding ?? null
   };
+}
+
+/** The newest stored finding of the project for each fingerprint the waivers name. */
+async function findLatestFindings(
+  projectId: number,
+  waivers: readonly Waiver[]
+): Promise<Map<string, NonNullable<WaiverView['finding']>>> {
+  const result = new Map<string, NonNullable<WaiverView['finding']>>();
+  const fingerprints = [...new Set(waivers.map((waiver) => waiver.fingerprint).filter((value) => value !== null))];
+  if (fingerprints.length === 0) return result;
+  const newest = (await FindingRecord.findAll({
+    attributes: [[fn('MAX', col('Finding.id')), 'id']],
+    where: { fingerprint: { [Op.in]: fingerprints } },
+    include: [{ model: Build, as: 'build', where: { projectId }, attributes: [] }],
+    group: ['fingerprint'],
+    raw: true
+  })) as unknown as { id: number }[];
+  if (newest.length === 0) return result;
+  const rows = await FindingRecord.findAll({
+    attributes: ['fingerprint', 'rule', 'assetPath', 'node'],
+    where: { id: { [Op.in]: newest.map((row) => Number(row.id)) } }
+  });
+  for (const row of rows) result.set(row.fingerprint, { rule: row.rule, assetPath: row.assetPath, node: row.node });
+  return result;
 }
 
 /** Per waiver: the number of builds whose findings it waived and the newest such build. */
