@@ -30,8 +30,8 @@
  * on a shared 2-core machine whose load average sat at 7 to 11, so only large effects are real):
  * - one builder per pass let a major GC deoptimize both scan loops (see sharedBuilder); with a
  *   full GC before each pass the digests measured 82 ms (LINEAR) + 50 ms (CUBICSPLINE) fastest,
- *   33 + 13 ms without it. With the shared builder the GC no longer matters, and the benchmark's
- *   rule pass went from 424 ms to 148 ms median (90 ms fastest).
+ *   33 + 13 ms without it. With the shared builder the GC no longer matters: the same benchmark
+ *   at the same load took 115 ms median CPU time for the rule pass before, 62 ms after.
  * - the digests after that: 30–45 ms for the 1.5 million LINEAR keys and 13–18 ms for the 0.5
  *   million CUBICSPLINE keys (fastest runs); the rules' own work on the marks 7–10 ms. A loop that
  *   only reads every value (and tangent) takes 12–17 ms, so the 20 ms budget of 100 million keys
