@@ -21,7 +21,7 @@ test('an admin invites a user, the invitation is accepted, and the new user sign
   await admin.getByLabel('Role', { exact: true }).selectOption('artist');
   await admin.getByRole('button', { name: 'Create invitation link' }).click();
   const linkBlock = admin.locator('[data-invitation-link]');
-  await expect(linkBlock).toContainText(`Invitation for ${email} ready`);
+  await expect(linkBlock).toContainText(`Invitation for ${email} sent by e-mail`);
   const link = (await linkBlock.locator('code').innerText()).trim();
   expect(link).toMatch(/\/invite\/inv_[A-Za-z0-9_-]{43}$/);
   await expect(admin.locator(`[data-invitation="${email}"]`)).toContainText('Pending');
