@@ -7,6 +7,7 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { makeFolder } from './make-folder';
 
 const SHA256_PATTERN = /^[0-9a-f]{64}$/;
 
@@ -24,7 +25,7 @@ export function blobPathOf(dataDir: string, sha256: string): string {
 export async function storeBlob(dataDir: string, sha256: string, sourcePath: string): Promise<void> {
   const target = blobPathOf(dataDir, sha256);
   if (await exists(target)) return;
-  await fs.promises.mkdir(path.dirname(target), { recursive: true });
+  await makeFolder(path.dirname(target));
   try {
     // rename(2) is atomic: readers see no blob or the whole blob.
     await fs.promises.rename(sourcePath, target);

@@ -19,6 +19,7 @@ import { pipeline } from 'node:stream/promises';
 import busboy from 'busboy';
 import { ApiError } from './api-error';
 import type { IngestLimits } from './limits';
+import { makeFolder } from './make-folder';
 import { validateUploadPath } from './upload-path';
 
 /** One file received into the upload folder. */
@@ -191,8 +192,10 @@ class UploadReceiver {
   private onFile(name: string, stream: Readable, filename: string | undefined): void {
     // A body cut off mid-part errors the part's stream, possibly before anything reads it (while
     // its folder is made, or after it was set to be discarded): unheard, that error would end the
-    // process. The parser reports the same cut as its own error, so this only has to listen.
-    stream.on('error', (error) => this.fail(malformed(error)));
+    // process. Nothing is lost by only listening: the parser reports the same cut as its own
+    // error, and a failed write (a full disk) reaches writeFile through its pipeline, which must
+    // stay the failure reported rather than be taken for a malformed body.
+    stream.on('error', () => {});
     if (this.failure) {
       stream.resume();
       return;
@@ -251,10 +254,13 @@ class UploadReceiver {
   private async writeFile(filePath: string, stream: Readable): Promise<void> {
     const diskPath = path.join(this.filesFolder, ...filePath.split('/'));
     try {
-      await fs.promises.mkdir(path.dirname(diskPath), { recursive: true });
+      await makeFolder(path.dirname(diskPath));
     } catch (error) {
       stream.resume();
-      throw pathConflict(filePath, error);
+      // A file where a folder of the path should be; anything else (a full disk) is no conflict.
+      const code = (error as NodeJS.ErrnoException).code;
+      if (code === 'EEXIST' || code === 'ENOTDIR') throw pathConflict(filePath, error);
+      throw error;
     }
     // The upload may have failed while the folder was made; the stream is then already ended.
     if (this.failure || stream.destroyed) return;
