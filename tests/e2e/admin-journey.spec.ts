@@ -64,6 +64,18 @@ test('an admin invites a user, the invitation is accepted, and the new user sign
   await expect(admin.locator(`tr[data-user="${email}"]`)).toContainText('Maren Tidewell');
   await expect(admin.locator(`[data-invitation="${email}"]`)).toContainText('Accepted');
   await journeyScreenshot(admin, testInfo, 5, 'users-after');
+
+  // Disabled, the account loses its session at once; enabled again, it signs in.
+  const row = admin.locator(`tr[data-user="${email}"]`);
+  await row.getByRole('button', { name: 'Disable Maren Tidewell' }).click();
+  await expect(row).toContainText('Disabled');
+  await guest.goto('/');
+  await expect(guest).toHaveURL(/\/signin/);
+  await row.getByRole('button', { name: 'Enable Maren Tidewell' }).click();
+  await expect(row).toContainText('Active');
+  await row.getByLabel('Site role of Maren Tidewell', { exact: true }).selectOption('lead');
+  await row.getByRole('button', { name: 'Change the site role of Maren Tidewell' }).click();
+  await expect(admin.getByRole('status').filter({ hasText: 'Maren Tidewell is now a lead.' })).toBeVisible();
   await adminContext.close();
   await guestContext.close();
 });

@@ -136,7 +136,10 @@ test('a lead reads the trends, saves a policy revision and creates a token shown
   // policySchema: wideArcDegrees is at most 180.
   await expect(page.locator('[data-field-error="wideArcDegrees"]')).toHaveText('Must be at most 180.');
   await journeyScreenshot(page, testInfo, 2, 'policy-inline-error');
-  await page.getByRole('button', { name: /^Save as revision/ }).click();
+  await Promise.all([
+    page.waitForResponse((response) => response.url().includes('?/savePolicy')),
+    page.getByRole('button', { name: /^Save as revision/ }).click()
+  ]);
   // The server refuses it too and keeps the typed value.
   await expect(page.getByLabel('Wide arc above')).toHaveValue('200');
   await expect(revisionLine).toHaveAttribute('data-policy-revision', String(before));
@@ -154,7 +157,29 @@ test('a lead reads the trends, saves a policy revision and creates a token shown
   await journeyScreenshot(page, testInfo, 3, 'token-created');
   await page.reload();
   await expect(page.locator('[data-created-token]')).toHaveCount(0);
-  await expect(page.getByRole('cell', { name: 'E2E token shown once', exact: true })).toBeVisible();
+  const tokenRow = page.locator('tr[data-token-id]').filter({ hasText: 'E2E token shown once' });
+  await expect(tokenRow).toContainText('Active');
+  page.once('dialog', (dialog) => void dialog.accept());
+  await tokenRow.getByRole('button', { name: 'Revoke E2E token shown once' }).click();
+  await expect(tokenRow).toContainText('Revoked');
+
+  // Members: add an existing account, change its role, remove it again.
+  await page.getByLabel('Add by e-mail').fill('juno@lanternfish.example');
+  await page.getByLabel('Role', { exact: true }).selectOption('viewer');
+  await page.getByRole('button', { name: 'Add member' }).click();
+  const member = page.locator('tr[data-member="juno@lanternfish.example"]');
+  await expect(member.getByLabel('Role of Juno Abara', { exact: true })).toHaveValue('viewer');
+  await page.getByLabel('Add by e-mail').fill('nobody@lanternfish.example');
+  await page.getByRole('button', { name: 'Add member' }).click();
+  await expect(page.getByText(/No account uses nobody@lanternfish\.example/)).toBeVisible();
+  await member.getByLabel('Role of Juno Abara', { exact: true }).selectOption('artist');
+  await member.getByRole('button', { name: 'Change the role of Juno Abara' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Role changed.' })).toBeVisible();
+  await expect(member.getByLabel('Role of Juno Abara', { exact: true })).toHaveValue('artist');
+  await journeyScreenshot(page, testInfo, 4, 'members');
+  page.once('dialog', (dialog) => void dialog.accept());
+  await member.getByRole('button', { name: 'Remove Juno Abara' }).click();
+  await expect(member).toHaveCount(0);
 });
 
 test('a lead checks a meshopt-compressed file in the browser, nothing uploaded, and downloads SARIF', async ({
