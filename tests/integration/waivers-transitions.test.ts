@@ -188,6 +188,15 @@ describe('listing', () => {
     expect((await findWaiver(project.id, waiver.id, new Date('2032-03-02T00:00:00Z')))?.state).toBe('expired');
   });
 
+  it('names who revoked a revoked waiver, from its history', async () => {
+    const waiver = await proposed();
+    await waivers.decide(project, actors.lead, waiver.id, { action: 'approve' });
+    await waivers.decide(project, actors.lead, waiver.id, { action: 'revoke' });
+    const view = await findWaiver(project.id, waiver.id);
+    expect(view).toMatchObject({ state: 'revoked', revokedBy: { id: actors.lead.user.id, name: 'The lead' } });
+    expect(view?.revokedAt).toEqual(expect.any(String));
+  });
+
   it('lists only the project’s own waivers, newest first, with who proposed them', async () => {
     const list = await listWaivers(project.id);
     expect(list.length).toBeGreaterThan(0);

@@ -3,7 +3,7 @@
  * when it expires, whether it has expired, and in how many builds the gate applied it.
  */
 import { Op, col, fn } from 'sequelize';
-import { Build, FindingRecord, User, Waiver } from '../db/models';
+import { Build, FindingRecord, User, Waiver, WaiverEvent } from '../db/models';
 import type { WaiverScope, WaiverStatus } from '../db/models/waiver';
 
 /** A waiver's standing for display: its stored status, or `expired` for an approved one past its expiry. */
@@ -30,6 +30,9 @@ export interface WaiverView {
   proposedBy: WaiverPerson | null;
   decidedBy: WaiverPerson | null;
   decidedAt: string | null;
+  /** Who revoked a revoked waiver, and when (from its history). */
+  revokedBy: WaiverPerson | null;
+  revokedAt: string | null;
   /** Builds in which the gate let a finding pass because of this waiver. */
   appliedBuildCount: number;
   /** The newest of those builds, or null. */
@@ -59,9 +62,11 @@ export async function listWaivers(projectId: number, now: Date = new Date()): Pr
     waivers.map((waiver) => waiver.id)
   );
   const findings = await findLatestFindings(projectId, waivers);
-  return waivers.map((waiver) =>
-    toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined)
-  );
+  const revocations = await findRevocations(waivers);
+  return waivers.map((waiver) => ({
+    ...toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined),
+    ...revocations.get(waiver.id)
+  }));
 }
 
 /** One waiver of the project, or null. */
@@ -80,7 +85,11 @@ export async function findWaiver(
   if (!waiver) return null;
   const applied = await countApplications(projectId, [waiver.id]);
   const findings = await findLatestFindings(projectId, [waiver]);
-  return toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined);
+  const revocations = await findRevocations([waiver]);
+  return {
+    ...toView(waiver, now, applied.get(waiver.id), waiver.fingerprint ? findings.get(waiver.fingerprint) : undefined),
+    ...revocations.get(waiver.id)
+  };
 }
 
 function toView(
@@ -104,10 +113,34 @@ function toView(
     proposedBy: people.proposedBy ? { id: people.proposedBy.id, name: people.proposedBy.name } : null,
     decidedBy: people.decidedBy ? { id: people.decidedBy.id, name: people.decidedBy.name } : null,
     decidedAt: waiver.decidedAt?.toISOString() ?? null,
+    revokedBy: null,
+    revokedAt: null,
     appliedBuildCount: applied?.count ?? 0,
     lastAppliedBuildId: applied?.lastBuildId ?? null,
     finding: finding ?? null
   };
+}
+
+/** Who revoked each revoked waiver and when, from the history. */
+async function findRevocations(
+  waivers: readonly Waiver[]
+): Promise<Map<number, Pick<WaiverView, 'revokedBy' | 'revokedAt'>>> {
+  const result = new Map<number, Pick<WaiverView, 'revokedBy' | 'revokedAt'>>();
+  const revoked = waivers.filter((waiver) => waiver.status === 'revoked').map((waiver) => waiver.id);
+  if (revoked.length === 0) return result;
+  const events = await WaiverEvent.findAll({
+    where: { waiverId: { [Op.in]: revoked }, action: 'revoked' },
+    include: [{ model: User, as: 'user', attributes: ['id', 'name'] }],
+    order: [['id', 'ASC']]
+  });
+  for (const event of events) {
+    const user = (event as WaiverEvent & { user?: User | null }).user;
+    result.set(event.waiverId, {
+      revokedBy: user ? { id: user.id, name: user.name } : null,
+      revokedAt: event.createdAt.toISOString()
+    });
+  }
+  return result;
 }
 
 /** The newest stored finding of the project for each fingerprint the waivers name. */
