@@ -33,7 +33,7 @@ async function waitFor(check: () => boolean, what: string, timeoutMs = 10_000): 
 }
 
 describe('a server killed mid-upload', () => {
-  it('stores nothing of the build, and the next server sweeps the half-written upload', async () => {
+  it('stores nothing of the build, and the next server sweeps the half-written upload at start-up', async () => {
     const first = await postBuild(server, 'tidewatch', secret, [
       { path: 'chars/kelp-diver.glb', bytes: await diverGlb() }
     ]);
@@ -78,6 +78,8 @@ describe('a server killed mid-upload', () => {
     expect(await countBuildRows(server.database)).toEqual(rowsBefore);
 
     await server.restart();
+    // The restarted server sweeps the dead process's folder at start-up, before any upload.
+    expect(listUploadFolders(server)).toEqual([]);
     expect(await countBuildRows(server.database)).toEqual(rowsBefore);
     const next = await postBuild(server, 'tidewatch', secret, [
       { path: 'chars/kelp-diver.glb', bytes: await diverGlb() }
