@@ -19,7 +19,11 @@ export interface RawMultipartOptions {
 }
 
 /** The body bytes of `parts` separated by `boundary`. */
-export function rawMultipart(parts: readonly RawPart[], boundary: string, options: RawMultipartOptions = {}): Buffer {
+export function rawMultipart(
+  parts: readonly RawPart[],
+  boundary: string,
+  options: RawMultipartOptions = {}
+): Buffer<ArrayBuffer> {
   const chunks: Buffer[] = [];
   for (const part of parts) {
     chunks.push(Buffer.from(`--${boundary}\r\n${part.headers.map((line) => `${line}\r\n`).join('')}\r\n`, 'latin1'));

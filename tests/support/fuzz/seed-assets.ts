@@ -5,7 +5,7 @@
  * as a GLB and as a .gltf with its `.bin` and `.png` side files. Interpolation is set on every
  * sampler. Rotations are about +Y from half-angles (Shoemake 1985: q = [0, sin(θ/2), 0, cos(θ/2)]).
  */
-import { Document, WebIO } from '@gltf-transform/core';
+import { Document, WebIO, type TypedArray } from '@gltf-transform/core';
 
 /** The seed files, and the side-file names the .gltf refers to. */
 export interface SeedAssets {
@@ -81,7 +81,7 @@ export function seedDocument(): Document {
     path: 'rotation' | 'translation',
     interpolation: 'LINEAR' | 'STEP' | 'CUBICSPLINE',
     times: number[],
-    output: Float32Array | Int16Array,
+    output: TypedArray,
     isNormalized = false
   ) => {
     const input = document.createAccessor().setType('SCALAR').setArray(new Float32Array(times)).setBuffer(buffer);
