@@ -114,11 +114,26 @@ export async function createPostgresDatabase(): Promise<CreatedDatabase> {
   return {
     location: parseDatabaseUrl(url, process.cwd()),
     url,
-    async drop() {
-      // FORCE (PostgreSQL 13+) ends sessions a killed or still-stopping server left behind.
-      await withAdminConnection(adminUrl, (admin) => admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`));
-    }
+    drop: () => dropPostgresDatabase(adminUrl, name)
   };
+}
+
+/**
+ * Drops a test database. FORCE (PostgreSQL 13+) ends the sessions a killed or still-stopping
+ * server left behind; it refuses while a session it may not end is still attached (an autovacuum
+ * worker, or a session of another role without pg_signal_backend), so the drop is tried again for
+ * a few seconds before the error is passed on.
+ */
+async function dropPostgresDatabase(adminUrl: string, name: string): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await withAdminConnection(adminUrl, (admin) => admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`));
+      return;
+    } catch (error) {
+      if (attempt >= 20) throw error;
+      await new Promise((resolve) => setTimeout(resolve, 250));
+    }
+  }
 }
 
 async function withAdminConnection(url: string, work: (admin: Sequelize) => Promise<unknown>): Promise<void> {
