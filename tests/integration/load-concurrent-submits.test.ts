@@ -14,6 +14,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Asset, Build, FindingRecord } from '$lib/server/db/models';
+import { assetSideFiles } from '$lib/server/ingest/asset-side-file';
 import { buildCli, runCliAsync, type CliRun } from '../../cli/testing/run-cli';
 import { diverGlb, diverGltf } from './api-fixtures';
 import { seedProject, startApiTestServer, type ApiTestServer } from './api-test-server';
@@ -133,11 +134,11 @@ describe(`${BUILD_COUNT} CLI submissions of ${ASSETS_PER_BUILD} assets at once`,
       expect(errors.map((finding) => [finding.assetPath, finding.rule])).toEqual(
         isFailing(buildIndex) ? [[`chars/diver-${BROKEN_ASSET_INDEX}.glb`, 'not-a-rotation']] : []
       );
-      const [sideFiles] = await server.database.sequelize.query(
-        'SELECT path FROM asset_side_files WHERE assetId IN (?) ORDER BY path',
-        { replacements: [assets.map((asset) => asset.id)] }
-      );
-      expect((sideFiles as { path: string }[]).map((row) => row.path)).toEqual(['diver-8.bin', 'diver-9.bin']);
+      const sideFiles = await assetSideFiles().findAll({
+        where: { assetId: assets.map((asset) => asset.id) },
+        order: [['path', 'ASC']]
+      });
+      expect(sideFiles.map((row) => row.path)).toEqual(['diver-8.bin', 'diver-9.bin']);
     }
   });
 });
