@@ -42,7 +42,7 @@ const CLI = path.join(ROOT, 'cli', 'dist', 'orientry.js');
 const HISTORY = { builds: 1_000, assetsPerBuild: 200, findings: 50_000 };
 const TARGET_P95_MS = 200;
 const WARMUP_REQUESTS = 5;
-const TIMED_REQUESTS = 60;
+const TIMED_REQUESTS = 100;
 const CLIENTS = 4;
 const SUBMISSIONS_PER_CLIENT = 5;
 const ASSETS_PER_SUBMISSION = 50;
@@ -109,7 +109,8 @@ async function benchDatabase(target: BenchDatabase, buildDir: string): Promise<B
     // Builds spread over the whole history, newest first: what people open most.
     const buildIds = Array.from(
       { length: TIMED_REQUESTS },
-      (_, index) => history.buildIds[history.buildIds.length - 1 - ((index * 16) % history.buildIds.length)]
+      (_, index) =>
+        history.buildIds[history.buildIds.length - 1 - Math.floor((index * history.buildIds.length) / TIMED_REQUESTS)]
     );
     const routes: { name: string; pathOf: (index: number) => string }[] = [
       { name: 'Build report page', pathOf: (index) => `/projects/${slug}/builds/${buildIds[index]}` },
