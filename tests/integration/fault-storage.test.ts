@@ -138,7 +138,7 @@ describe.skipIf(!mountPoint)('the data folder on a full or read-only disk', () =
     expect(await exportReport(storedBuildId)).toBe(storedReport);
   });
 
-  it('refuses a submission with 507 storage.full when even a small build no longer fits the database', async () => {
+  it('refuses even a one-file build with 507 storage.full when not a byte is left, and stores it once there is room', async () => {
     const filler = path.join(mountPoint!, 'filler.bin');
     const { bavail, bsize } = fs.statfsSync(mountPoint!);
     fs.writeFileSync(filler, Buffer.alloc(Math.max(0, bavail * bsize)));
