@@ -1,7 +1,8 @@
 /**
  * A real Orientry server for the API tests: the production build (`node build`, built first when
  * stale) on a free port with a throw-away data folder and database. The test process opens the
- * same SQLite file (WAL lets both in) to seed projects, people and tokens and to count rows.
+ * same database (the SQLite file, WAL lets both in, or in the PostgreSQL pass a fresh PostgreSQL
+ * database) to seed projects, people and tokens and to count rows.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
@@ -10,12 +11,12 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { hashPassword } from '$lib/server/auth/password';
-import { migrate } from '$lib/server/db/migrate';
-import { openDatabase, type Database } from '$lib/server/db/instance';
+import type { Database } from '$lib/server/db/instance';
 import { Project, ProjectMembership, User } from '$lib/server/db/models';
 import type { ProjectRole, UserRole } from '$lib/types/roles';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
 import { ensureBuild } from '../../scripts/ensure-build.js';
+import { openDatabaseUnderTest } from './helpers/database-under-test';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 
@@ -24,6 +25,8 @@ export interface ApiTestServer {
   url: string;
   dataDir: string;
   database: Database;
+  /** DATABASE_URL of the server's database, for more server processes on the same data. */
+  databaseUrl: string;
   child: ChildProcess;
   /** Lines the server printed (stdout and stderr), for failure messages. */
   output: string[];
@@ -60,9 +63,8 @@ export async function startApiTestServer(
   const cwd = options.cwd ?? ROOT;
   const buildDir = await copyOfBuild();
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-api-'));
-  const storage = path.join(dataDir, 'api.db');
-  const database = openDatabase({ dialect: 'sqlite', storage });
-  await migrate(database.sequelize);
+  const underTest = await openDatabaseUnderTest({ sqliteFile: path.join(dataDir, 'api.db') });
+  const { database } = underTest;
 
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
@@ -75,13 +77,13 @@ export async function startApiTestServer(
     HOST: '127.0.0.1',
     ORIGIN: url,
     DATA_DIR: dataDir,
-    DATABASE_URL: `sqlite:${storage}`
+    DATABASE_URL: underTest.url
   };
   let child: ChildProcess;
   try {
     child = await launch(buildDir, cwd, serverEnv, url, output);
   } catch (error) {
-    await database.sequelize.close();
+    await underTest.remove();
     fs.rmSync(dataDir, { recursive: true, force: true });
     fs.rmSync(buildDir, { recursive: true, force: true });
     throw error;
@@ -90,6 +92,7 @@ export async function startApiTestServer(
     url,
     dataDir,
     database,
+    databaseUrl: underTest.url,
     child,
     output,
     async stop() {
@@ -101,7 +104,7 @@ export async function startApiTestServer(
     },
     async remove() {
       await stopChild(server.child);
-      await database.sequelize.close();
+      await underTest.remove();
       fs.rmSync(dataDir, { recursive: true, force: true });
       fs.rmSync(buildDir, { recursive: true, force: true });
     }

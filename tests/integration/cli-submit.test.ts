@@ -86,7 +86,7 @@ describe('orientry submit', () => {
     expect(assets.map((asset) => asset.path)).toEqual(['keeper/keeper.gltf', 'props/buoy.glb']);
     // The server records the side file the .gltf read, with the digest of what it received.
     const [sideFiles] = await server.database.sequelize.query(
-      'SELECT path, contentHash FROM asset_side_files WHERE assetId = ?',
+      'SELECT "path", "contentHash" FROM "asset_side_files" WHERE "assetId" = ?',
       { replacements: [assets[0].id] }
     );
     const binBytes = fs.readFileSync(path.join(work, 'clean/keeper/keeper-data.bin'));

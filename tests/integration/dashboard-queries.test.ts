@@ -135,7 +135,8 @@ describe('listFindingFacets', () => {
       valuesJson: null,
       message: 'm',
       hint: 'h',
-      fingerprint: `${rule}-${assetPath}-${status}`
+      // Fingerprints are 32 characters at most (findings.fingerprint is VARCHAR(32)).
+      fingerprint: `${rule}-${assetPath}-${status}`.slice(-32)
     });
     await FindingRecord.bulkCreate([
       row('unit-drift', 'props/lamp.glb', 'new'),

@@ -241,7 +241,7 @@ describe('POST /api/v1/projects/{project}/builds', () => {
     const [asset] = await Asset.findAll({ where: { buildId: body.build.id } });
     expect(asset.unreadable).toBe(false);
     const [sideFiles] = await server.database.sequelize.query(
-      'SELECT path, contentHash FROM asset_side_files WHERE assetId = ?',
+      'SELECT "path", "contentHash" FROM "asset_side_files" WHERE "assetId" = ?',
       { replacements: [asset.id] }
     );
     expect(sideFiles).toEqual([

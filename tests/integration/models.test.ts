@@ -17,6 +17,11 @@ import * as apiTokens from '$lib/server/tokens/api-tokens';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
+
+/** How SQLite and PostgreSQL word a refused CHECK and a broken foreign key. */
+const CHECK_FAILED = /CHECK constraint failed|violates check constraint/;
+const FOREIGN_KEY_FAILED = /FOREIGN KEY constraint failed|violates foreign key constraint/;
+const CHECK_OR_LENGTH_FAILED = new RegExp(`${CHECK_FAILED.source}|value too long`);
 let counter = 0;
 
 beforeAll(async () => {
@@ -50,7 +55,7 @@ async function insertRaw(table: string, row: Record<string, unknown>): Promise<v
   const values = { createdAt: now, updatedAt: now, ...row };
   const columns = Object.keys(values);
   await temp.database.sequelize.query(
-    `INSERT INTO ${table} (${columns.map((c) => `\`${c}\``).join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,
+    `INSERT INTO ${table} (${columns.map((c) => `"${c}"`).join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,
     { replacements: Object.values(values) }
   );
 }
@@ -62,7 +67,7 @@ async function expectRefusedByDatabase(statement: Promise<unknown>, pattern: Reg
     (caught: { original?: Error; message: string }) => caught
   );
   expect(error, 'the statement should have failed').not.toBeNull();
-  // Sequelize wraps SQLite's constraint errors; the driver's own message is on `original`.
+  // Sequelize wraps the driver's constraint errors; the driver's own message is on `original`.
   expect(error!.original?.message ?? error!.message).toMatch(pattern);
 }
 
@@ -103,7 +108,7 @@ describe('users', () => {
         passwordHash: 'x',
         role: 'owner'
       }),
-      /CHECK constraint failed/
+      CHECK_FAILED
     );
   });
 
@@ -145,7 +150,8 @@ describe('projects', () => {
       expect(await Project.count({ where: { slug } })).toBe(1);
     } else {
       await expect(viaModel).rejects.toBeInstanceOf(ValidationError);
-      await expectRefusedByDatabase(insertRaw('projects', { slug, name: 'Raw' }), /CHECK constraint failed/);
+      // PostgreSQL refuses a slug over VARCHAR(63) before it reaches the CHECK; SQLite leaves length to the CHECK.
+      await expectRefusedByDatabase(insertRaw('projects', { slug, name: 'Raw' }), CHECK_OR_LENGTH_FAILED);
     }
   });
 
@@ -170,14 +176,14 @@ describe('memberships', () => {
     ).rejects.toBeInstanceOf(ValidationError);
     await expectRefusedByDatabase(
       insertRaw('project_memberships', { projectId: project.id, userId: user.id, role: 'admin' }),
-      /CHECK constraint failed/
+      CHECK_FAILED
     );
   });
 
   it('refuses a membership for a project that does not exist', async () => {
     const user = await makeUser();
     await expect(ProjectMembership.create({ projectId: 999_999, userId: user.id, role: 'viewer' })).rejects.toThrow(
-      /FOREIGN KEY constraint failed/
+      FOREIGN_KEY_FAILED
     );
   });
 });
@@ -294,10 +300,7 @@ describe('waivers', () => {
     await expect(Waiver.create({ ...fields, reason: 'r', expiresAt: null, proposedById: null })).rejects.toBeInstanceOf(
       ValidationError
     );
-    await expectRefusedByDatabase(
-      insertRaw('waivers', { ...fields, reason: 'r', status: 'proposed' }),
-      /CHECK constraint failed/
-    );
+    await expectRefusedByDatabase(insertRaw('waivers', { ...fields, reason: 'r', status: 'proposed' }), CHECK_FAILED);
   });
 });
 
@@ -331,7 +334,7 @@ describe('API tokens', () => {
         prefix: 'p',
         scopes: 'submit'
       }),
-      /CHECK constraint failed/
+      CHECK_FAILED
     );
   });
 });

@@ -11,7 +11,6 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import net from 'node:net';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ProjectPolicy } from '$lib/server/db/models';
 import { diverGlb } from './api-fixtures';
@@ -59,7 +58,7 @@ async function startSibling(env: Record<string, string>): Promise<string> {
       NODE_ENV: 'production',
       AUTH_SECRET: 'api-test-secret-that-is-at-least-32-characters-long',
       DATA_DIR: server.dataDir,
-      DATABASE_URL: `sqlite:${path.join(server.dataDir, 'api.db')}`,
+      DATABASE_URL: server.databaseUrl,
       PORT: String(port),
       HOST: '127.0.0.1',
       ...env

@@ -16,7 +16,7 @@ export function prepareDataDir(config: ServerConfig): void {
       `Orientry cannot write to the data folder "${config.dataDir}" (${code}). ` +
       'Set DATA_DIR to a writable folder or fix its permissions.'
   );
-  if (config.database.storage === ':memory:') return;
+  if (config.database.dialect !== 'sqlite' || config.database.storage === ':memory:') return;
   const databaseDir = path.dirname(config.database.storage);
   if (path.resolve(databaseDir) === path.resolve(config.dataDir)) return;
   assertWritable(

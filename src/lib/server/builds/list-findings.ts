@@ -64,7 +64,7 @@ export async function listFindings(buildId: number, query: ListFindingsQuery): P
   const { rows, count } = await FindingRecord.findAndCountAll({
     where,
     order: [
-      [literal("CASE `severity` WHEN 'error' THEN 0 WHEN 'warning' THEN 1 ELSE 2 END"), 'ASC'],
+      [literal(`CASE "severity" WHEN 'error' THEN 0 WHEN 'warning' THEN 1 ELSE 2 END`), 'ASC'],
       ['assetPath', 'ASC'],
       ['id', 'ASC']
     ],

@@ -68,7 +68,7 @@ export async function listBuildTable(
     query.sort === 'time'
       ? newestLast
       : query.sort === 'verdict'
-        ? [[literal("CASE `verdict` WHEN 'fail' THEN 1 ELSE 0 END"), direction], ...newestFirst]
+        ? [[literal(`CASE "verdict" WHEN 'fail' THEN 1 ELSE 0 END`), direction], ...newestFirst]
         : [['newCount', direction], ...newestFirst];
   const { rows, count } = await Build.findAndCountAll({
     where,

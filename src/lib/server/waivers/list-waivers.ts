@@ -183,7 +183,9 @@ async function countApplications(
     where: {
       waiverId: { [Op.in]: waiverIds },
       // Findings only point at waivers of their own project; the build filter keeps that a fact, not a hope.
-      buildId: { [Op.in]: Build.sequelize!.literal(`(SELECT id FROM builds WHERE projectId = ${Number(projectId)})`) }
+      buildId: {
+        [Op.in]: Build.sequelize!.literal(`(SELECT "id" FROM "builds" WHERE "projectId" = ${Number(projectId)})`)
+      }
     },
     group: ['waiverId'],
     raw: true
