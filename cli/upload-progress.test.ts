@@ -22,6 +22,20 @@ describe('createUploadProgress', () => {
     );
   });
 
+  it('writes nothing after finish, when the server answered before the body was fully sent', () => {
+    for (const isTTY of [false, true]) {
+      const stream = recordingStream(isTTY);
+      const progress = createUploadProgress(stream, true, () => 0);
+      progress.start(10 * MIB);
+      progress.advance(MIB);
+      progress.finish();
+      const before = stream.text;
+      progress.advance(9 * MIB);
+      progress.sent();
+      expect(stream.text).toBe(before);
+    }
+  });
+
   it('adds a plain line per tenth of the upload when forced without a terminal', () => {
     const stream = recordingStream(false);
     const progress = createUploadProgress(stream, true);

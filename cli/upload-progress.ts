@@ -37,6 +37,9 @@ function terminalProgress(stream: ProgressStream, nowMs: () => number): UploadPr
   let done = 0;
   let lastDrawMs = Number.NEGATIVE_INFINITY;
   let hasLine = false;
+  // The server may answer (a refusal) while the body is still being pulled: nothing is drawn
+  // after finish(), so the answer stays the last thing on the terminal.
+  let isActive = false;
   const draw = (text: string) => {
     // Leave the last column free so the terminal never wraps the line.
     const width = Math.max(10, (stream.columns ?? 80) - 1);
@@ -53,19 +56,22 @@ function terminalProgress(stream: ProgressStream, nowMs: () => number): UploadPr
     start(totalBytes) {
       total = totalBytes;
       done = 0;
+      isActive = true;
       lastDrawMs = nowMs();
       drawBar();
     },
     advance(byteLength) {
+      if (!isActive) return;
       done += byteLength;
       if (nowMs() - lastDrawMs < REDRAW_INTERVAL_MS) return;
       lastDrawMs = nowMs();
       drawBar();
     },
     sent() {
-      draw(`Uploaded ${formatBytes(total)}; the server is linting...`);
+      if (isActive) draw(`Uploaded ${formatBytes(total)}; the server is linting...`);
     },
     finish() {
+      isActive = false;
       if (hasLine) stream.write('\r\u001b[2K');
       hasLine = false;
     }
@@ -76,25 +82,30 @@ function plainProgress(stream: ProgressStream, isForced: boolean): UploadProgres
   let total = 0;
   let done = 0;
   let tenthsShown = 0;
+  // As in terminalProgress: no line after finish(), so a refusal stays the last line.
+  let isActive = false;
   return {
     start(totalBytes) {
       total = totalBytes;
       done = 0;
       tenthsShown = 0;
+      isActive = true;
       stream.write(`${PREFIX} sending ${formatBytes(totalBytes)}\n`);
     },
     advance(byteLength) {
       done += byteLength;
-      if (!isForced || total === 0) return;
+      if (!isActive || !isForced || total === 0) return;
       const tenths = Math.min(10, Math.floor((done / total) * 10));
       if (tenths <= tenthsShown || tenths === 10) return;
       tenthsShown = tenths;
       stream.write(`${PREFIX} ${formatBytes(done)} of ${formatBytes(total)} sent (${tenths * 10}%)\n`);
     },
     sent() {
-      stream.write(`${PREFIX} uploaded; waiting for the server to lint the build\n`);
+      if (isActive) stream.write(`${PREFIX} uploaded; waiting for the server to lint the build\n`);
     },
-    finish: () => undefined
+    finish() {
+      isActive = false;
+    }
   };
 }
 
