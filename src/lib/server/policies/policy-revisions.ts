@@ -5,7 +5,7 @@
  * (builds/find-project-policy.ts), and each build records the version it was linted under.
  */
 import { defaultPolicy, parsePolicy, policyVersionOf, type Policy } from '../../lint/policy';
-import { ProjectPolicy, User } from '../db/models';
+import { Project, ProjectPolicy, User } from '../db/models';
 
 /** A revision as the settings page and the API show it. Revision 0 stands for the defaults before any save. */
 export interface PolicyRevisionView {
@@ -63,8 +63,12 @@ export async function save(
   const policyVersion = policyVersionOf(policy);
   const sequelize = ProjectPolicy.sequelize;
   if (!sequelize) throw new Error('The ProjectPolicy model is not bound to a database; open the database first.');
-  // IMMEDIATE transactions serialise writers, so two saves at once get consecutive revisions.
+  // Two saves at once must get consecutive revisions: SQLite's IMMEDIATE transactions serialise
+  // writers already; on PostgreSQL the project row's lock does (SELECT ... FOR UPDATE).
   const saved = await sequelize.transaction(async (transaction) => {
+    if (sequelize.getDialect() === 'postgres') {
+      await Project.findByPk(projectId, { transaction, lock: transaction.LOCK.UPDATE });
+    }
     const latest = await ProjectPolicy.findOne({ where: { projectId }, order: [['revision', 'DESC']], transaction });
     if (latest?.policyVersion === policyVersion) return null;
     if (!latest && policyVersion === policyVersionOf(defaultPolicy())) return null;
