@@ -14,6 +14,10 @@ test('a viewer gets 403 from the settings page and from the policy and token API
   await expect(page.getByRole('navigation', { name: /sections/ }).getByRole('link', { name: 'Settings' })).toHaveCount(
     0
   );
+  // The top bar does not offer the Quick check page, which needs the artist role somewhere.
+  await expect(page.getByRole('link', { name: 'Projects' }).first()).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Quick check' })).toHaveCount(0);
+  expect((await page.request.get('/check')).status()).toBe(403);
 
   const response = await page.goto(`/projects/${PROJECT}/settings`);
   expect(response?.status()).toBe(403);
