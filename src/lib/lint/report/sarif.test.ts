@@ -144,7 +144,7 @@ describe('toSarif', () => {
     const uri = parse(text).runs[0].results[0].locations[0].physicalLocation.artifactLocation.uri;
     expect(uri).toBe('props/Lanterne%20d%E2%80%99%C3%A9t%C3%A9%20%232.glb');
     expect(uri).toMatch(/^[A-Za-z0-9\-._~%!$&'()*+,;=:@/]*$/); // RFC 3986 path characters only
-    expect(decodeURIComponent(new URL(uri, 'https://build.invalid/root/').pathname)).toBe(`/root/${path}`);
+    expect(decodeURIComponent(new URL(uri, 'https://build.invalid/build-root/').pathname)).toBe(`/build-root/${path}`);
   });
 
   it('appends a descriptor for a rule id it does not know, so every ruleIndex resolves', () => {
