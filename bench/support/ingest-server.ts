@@ -3,15 +3,15 @@
  * from a private copy so a rebuild elsewhere cannot swap files under it) on a free port, with its
  * own data folder and SQLite database, a seeded project and a submit token.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { migrate } from '$lib/server/db/migrate';
 import { openDatabase, type Database } from '$lib/server/db/instance';
 import { Build, Project } from '$lib/server/db/models';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
+import { freePort, stopChild, waitForHealth } from './server-process';
 
 /** A running bench server. */
 export interface IngestServer {
@@ -59,13 +59,13 @@ export async function startIngestServer(root: string, buildDir: string): Promise
   for (const stream of [child.stdout!, child.stderr!])
     stream.setEncoding('utf8').on('data', (text: string) => output.push(text));
   try {
-    await waitForHealth(child, url, output);
+    await waitForHealth(child, url, output, 30_000);
     // A server that has run a while has its routes loaded; SvelteKit loads a route's module (and
     // the lint library with it) on the route's first request. An unsigned GET of the same route
     // loads it without storing anything, so the timed upload is not billed for it.
     await (await fetch(`${url}/api/v1/projects/${project.slug}/builds`)).arrayBuffer();
   } catch (error) {
-    await stop(child);
+    await stopChild(child);
     await database.sequelize.close();
     fs.rmSync(dataDir, { recursive: true, force: true });
     throw error;
@@ -80,42 +80,9 @@ export async function startIngestServer(root: string, buildDir: string): Promise
       return build?.durationMs ?? null;
     },
     async remove() {
-      await stop(child);
+      await stopChild(child);
       await database.sequelize.close();
       fs.rmSync(dataDir, { recursive: true, force: true });
     }
   };
-}
-
-async function waitForHealth(child: ChildProcess, url: string, output: string[]): Promise<void> {
-  const deadline = Date.now() + 30_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The bench server exited early:\n${output.join('')}`);
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return;
-    } catch {
-      // Connection refused until the server listens: expected while it starts.
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  throw new Error(`The bench server did not answer within 30 s:\n${output.join('')}`);
-}
-
-async function stop(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  child.kill('SIGTERM');
-  await exited;
-}
-
-/** A TCP port nobody listens on right now. */
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
 }

@@ -3,11 +3,11 @@
  * port against a given DATABASE_URL with its own data folder, from a private copy of build/ so a
  * rebuild elsewhere cannot swap files under it.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
+import { freePort, stopChild, waitForHealth } from './server-process';
 
 /** A running server. */
 export interface OrientryServer {
@@ -69,38 +69,6 @@ export async function startOrientryServer(
     throw error;
   }
   return { url, pid: child.pid!, output, stop };
-}
-
-async function waitForHealth(child: ChildProcess, url: string, output: string[]): Promise<void> {
-  const deadline = Date.now() + 60_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The bench server exited early:\n${output.join('')}`);
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return;
-    } catch {
-      // Connection refused until the server listens: expected while it starts.
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  throw new Error(`The bench server did not answer within 60 s:\n${output.join('')}`);
-}
-
-async function stopChild(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  child.kill('SIGTERM');
-  await exited;
-}
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
 }
 
 /**
