@@ -100,6 +100,12 @@ class UploadReceiver {
   private buildBytes = 0;
   private failure: unknown = null;
   private readonly writes: Promise<void>[] = [];
+  /**
+   * The last file write queued. Files are written one after another, in the order they arrive, so
+   * the build's byte total grows in body order and a limit refusal names the file that crossed it
+   * (the parts arrive one by one anyway, so nothing is lost by not overlapping them).
+   */
+  private lastFileWrite: Promise<void> = Promise.resolve();
   private readonly paths = new Set<string>();
   /** File streams still flowing; a failure ends them so their writes settle. */
   private readonly openStreams = new Set<Readable>();
@@ -229,7 +235,11 @@ class UploadReceiver {
         );
       }
       this.paths.add(filePath);
-      this.writes.push(this.writeFile(filePath, stream).catch((error: unknown) => this.fail(error)));
+      const write = this.lastFileWrite
+        .then(() => this.writeFile(filePath, stream))
+        .catch((error: unknown) => this.fail(error));
+      this.lastFileWrite = write;
+      this.writes.push(write);
     } catch (error) {
       stream.resume();
       this.fail(error);
