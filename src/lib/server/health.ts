@@ -1,6 +1,7 @@
 import { ENGINE_VERSION } from '../lint/version';
 import { APP_VERSION } from './app-version';
 import { getDatabase, type Database } from './db/instance';
+import { lintThreadMode, type LintThreadMode } from './ingest/lint-thread';
 
 /** What GET /api/health answers: `degraded` (HTTP 503) when the database does not respond. */
 export interface HealthReport {
@@ -8,6 +9,8 @@ export interface HealthReport {
   version: string;
   engineVersion: string;
   database: { ok: boolean; latencyMs: number };
+  /** Where uploads are linted: `worker` (a thread of their own) or `main` (the request's thread). */
+  lintThread: LintThreadMode;
 }
 
 /**
@@ -29,6 +32,7 @@ export async function checkHealth(database: Database = getDatabase()): Promise<H
     status: ok ? 'ok' : 'degraded',
     version: APP_VERSION,
     engineVersion: ENGINE_VERSION,
-    database: { ok, latencyMs }
+    database: { ok, latencyMs },
+    lintThread: lintThreadMode()
   };
 }

@@ -8,13 +8,12 @@
  * the decoder the reader skips compressed geometry and reads animations, nodes and skins as
  * usual, which saves starting a WebAssembly module per process and decoding meshes per upload.
  */
-import fs from 'node:fs';
-import { lintAsset } from '../../lint/lint-asset';
 import type { AssetReport } from '../../lint/lint-report';
 import type { Policy } from '../../lint/policy';
 import { findReusableLint } from './find-reusable-lint';
 import type { ReceivedFile } from './receive-upload';
-import { createSideFileReader, type SideFileDigests } from './side-file-reader';
+import { lintOffMainThread } from './lint-thread';
+import type { SideFileDigests } from './side-file-reader';
 
 /** One asset of the upload with its lint result. */
 export interface LintedAsset {
@@ -32,25 +31,36 @@ export function isAssetFile(uploadPath: string): boolean {
 }
 
 /**
- * Reuses a stored lint of the asset or lints it now, reading side files from `filesFolder`.
- * @param digestOf the SHA-256 of a received file by its upload-relative path; undefined for a
- *   file not (yet) received. Every side file the result depends on is looked up through it.
+ * Reuses a stored lint of the asset or lints it now (on the lint thread when there is one),
+ * reading side files from `filesFolder`.
+ * @param digests the SHA-256 of every wholly received file by its upload-relative path; a file
+ *   not in it (not received yet, or not sent) reads as missing. The lint sees it as it is now.
  */
 export async function lintReceivedAsset(
   file: ReceivedFile,
   filesFolder: string,
   policy: Policy,
   policyVersion: string,
-  digestOf: (uploadPath: string) => string | undefined
+  digests: ReadonlyMap<string, string>
 ): Promise<LintedAsset> {
-  const reused = await findReusableLint(file, policyVersion, digestOf);
+  const received = new Map(digests);
+  const reused = await findReusableLint(file, policyVersion, (uploadPath) => received.get(uploadPath));
   if (reused) {
     return { file, report: reused.report, sideFiles: reused.sideFiles, reusedFromAssetId: reused.sourceAssetId };
   }
-  const reader = createSideFileReader(filesFolder, file.path, digestOf);
-  const bytes = await fs.promises.readFile(file.diskPath);
-  const report = await lintAsset({ path: file.path, bytes, readSideFile: reader.readSideFile }, policy);
-  return { file, report, sideFiles: { ...reader.requested }, reusedFromAssetId: null };
+  const { report, sideFiles } = await lintOffMainThread({
+    assetPath: file.path,
+    diskPath: file.diskPath,
+    filesFolder,
+    digests: received,
+    policy
+  });
+  return { file, report, sideFiles, reusedFromAssetId: null };
+}
+
+/** True when the result read every side file it asked for: no later file of the upload can change it. */
+export function readAllSideFiles(linted: LintedAsset): boolean {
+  return Object.values(linted.sideFiles).every((digest) => digest !== null);
 }
 
 /** The result for an asset the policy's include/exclude globs leave out. */

@@ -6,18 +6,16 @@
  *
  * Design notes: a result obtained early is kept only when everything it depends on had arrived.
  * An asset may name side files (a `.gltf` and its `.bin`) that come later in the body; the
- * reader then finds them missing. Every look-up of a side file goes through `digestOf`, which
- * notes paths not received yet; such a result is provisional and the asset is linted again once
- * the whole upload is in, with every file known. A lone `.glb`, the common case, is final at
- * once. Measured with the 50 GLBs of 2 MB of bench/ingest.bench.ts sent by the CLI: the lints
- * left when the last byte arrived took about 10 ms, against about 1 s for the 50 lints that all
- * ran after the upload before. Lints run on the request's own event loop between chunks; a
- * worker thread could lint on the second core, at the price of a separately bundled worker
- * module and files read in two threads (not done: on 2 cores the CLI process needs one too).
+ * reader then finds them missing; such a result (one that asked for a side file it could not
+ * read) is provisional and the asset is linted again once the whole upload is in, with every
+ * file known. A lone `.glb`, the common case, is final at once. Measured with the 50 GLBs of
+ * 2 MB of bench/ingest.bench.ts sent by the CLI: the lints left when the last byte arrived took
+ * about 10 ms, against about 1 s for the 50 lints that all ran after the upload before. The lints
+ * themselves run on the lint thread (lint-thread.ts), so receiving never waits for them.
  */
 import { isAssetIncluded } from '../../lint/asset-filter';
 import type { Policy } from '../../lint/policy';
-import { isAssetFile, lintReceivedAsset, skippedAsset, type LintedAsset } from './lint-upload';
+import { isAssetFile, lintReceivedAsset, readAllSideFiles, skippedAsset, type LintedAsset } from './lint-upload';
 import type { ReceivedFile } from './receive-upload';
 
 /** The linter of one upload. */
@@ -44,14 +42,8 @@ export function createUploadLinter(filesFolder: string, policy: Policy, policyVe
 
   const lintEarly = async (file: ReceivedFile) => {
     if (isStopped || failure) return;
-    const notYetReceived = new Set<string>();
-    const digestOf = (uploadPath: string) => {
-      const digest = digests.get(uploadPath);
-      if (digest === undefined) notYetReceived.add(uploadPath);
-      return digest;
-    };
-    const linted = await lintReceivedAsset(file, filesFolder, policy, policyVersion, digestOf);
-    if (notYetReceived.size === 0) finals.set(file.path, linted);
+    const linted = await lintReceivedAsset(file, filesFolder, policy, policyVersion, digests);
+    if (readAllSideFiles(linted)) finals.set(file.path, linted);
   };
 
   return {
@@ -70,14 +62,13 @@ export function createUploadLinter(filesFolder: string, policy: Policy, policyVe
       await queue;
       if (failure) throw failure.error;
       for (const file of files) digests.set(file.path, file.sha256);
-      const digestOf = (uploadPath: string) => digests.get(uploadPath);
       const assets = files.filter((file) => isAssetFile(file.path)).sort((a, b) => compareText(a.path, b.path));
       const linted: LintedAsset[] = [];
       for (const file of assets) {
         if (!isAssetIncluded(file.path, policy)) linted.push(skippedAsset(file));
         else
           linted.push(
-            finals.get(file.path) ?? (await lintReceivedAsset(file, filesFolder, policy, policyVersion, digestOf))
+            finals.get(file.path) ?? (await lintReceivedAsset(file, filesFolder, policy, policyVersion, digests))
           );
       }
       return linted;
