@@ -31,7 +31,8 @@ export async function lintAsset(source: AssetSource, policy: Policy, options?: R
   }
   let read: Awaited<ReturnType<typeof readAsset>>;
   try {
-    read = await readAsset(source, options);
+    // The Document is only read from here, so its keyframes may view the file's own bytes.
+    read = await readAsset(source, { ...options, viewKeyframes: true });
   } catch (error) {
     if (!isAssetReadError(error)) throw error;
     const severity = severityFor(policy, 'asset-unreadable', 'error');

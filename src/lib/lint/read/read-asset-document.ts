@@ -18,6 +18,7 @@ import { AssetReadError, isAssetReadError } from '../asset-read-error';
 import type { AssetSource } from '../asset-source';
 import { checkReferences } from './check-references';
 import { gltfJsonSchema, type GltfJson } from './gltf-json-schema';
+import { attachKeyframeViews, detachKeyframeAccessors } from './keyframe-views';
 import { loadResources } from './load-resources';
 import { parseContainer } from './parse-container';
 import { recordStoredRotations } from './stored-rotation';
@@ -42,6 +43,12 @@ export interface ReadOptions {
    * channels sharing one huge accessor (a damaged or hostile file), hit it.
    */
   maxDecodedByteLength?: number;
+  /**
+   * Let animation accessors view the file's own bytes instead of holding copies (see
+   * keyframe-views.ts): saves copying every key. The Document then shares `source.bytes`, so
+   * pass it only when the Document is never written to or written back (lint does so).
+   */
+  viewKeyframes?: boolean;
 }
 
 /** A read Document with the byte count behind it. */
@@ -132,10 +139,13 @@ async function readAssetUnguarded(source: AssetSource, options: ReadOptions): Pr
     maxDecodedByteLength: options.maxDecodedByteLength ?? BASE_DECODE_BUDGET + 4 * byteLength
   });
 
+  const accessorCount = json.accessors?.length ?? 0;
+  const keyframeViews = options.viewKeyframes ? detachKeyframeAccessors(json, bufferBytes) : [];
   let document: Document;
   try {
     const io = new WebIO().setLogger(SILENT).registerExtensions(extensions).registerDependencies(dependencies);
     document = await io.readJSON({ json: json as never, resources: resources as never });
+    attachKeyframeViews(document, keyframeViews, accessorCount);
   } catch (error) {
     if (isAssetReadError(error)) throw error;
     throw new AssetReadError(
