@@ -22,6 +22,23 @@ export interface FindingColumns {
   fingerprint: string;
 }
 
+/** The columns {@link findingOf} reads, for queries that fetch plain rows (`raw: true`). */
+export const FINDING_COLUMN_NAMES: readonly (keyof FindingColumns)[] = [
+  'assetPath',
+  'rule',
+  'severity',
+  'animation',
+  'channel',
+  'node',
+  'keyFirst',
+  'keyLast',
+  'timeSeconds',
+  'valuesJson',
+  'message',
+  'hint',
+  'fingerprint'
+];
+
 /**
  * The row columns of a finding. Names come from the uploaded file and may hold NUL, which neither
  * SQLite's inline INSERT text nor PostgreSQL text can carry: it is stored as U+FFFD, the Unicode

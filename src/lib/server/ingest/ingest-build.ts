@@ -8,11 +8,12 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { Op, UniqueConstraintError } from 'sequelize';
+import type { Finding } from '../../lint/finding';
 import { policyVersionOf } from '../../lint/policy';
 import { ENGINE_VERSION } from '../../lint/version';
 import { findBaselineBuild } from '../builds/find-baseline-build';
 import { findProjectPolicy } from '../builds/find-project-policy';
-import { findingOf } from '../builds/finding-columns';
+import { FINDING_COLUMN_NAMES, findingOf, type FindingColumns } from '../builds/finding-columns';
 import { getConfig } from '../config';
 import { Build, FindingRecord, Waiver, type Project } from '../db/models';
 import { ApiError } from './api-error';
@@ -85,14 +86,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
 
       const builtAt = meta.builtAt ?? new Date();
       const baseline = await findBaselineBuild(project, builtAt);
-      const baselineFindings = baseline
-        ? (
-            await FindingRecord.findAll({
-              where: { buildId: baseline.id, status: { [Op.in]: ['new', 'unchanged'] } },
-              order: [['id', 'ASC']]
-            })
-          ).map(findingOf)
-        : null;
+      const baselineFindings = baseline ? await findStandingFindings(baseline.id) : null;
       const waivers = await Waiver.findAll({ where: { projectId: project.id, status: 'approved' } });
       const plan = planBuild(
         checked.map((asset) => asset.report),
@@ -131,6 +125,20 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       }
     }
   });
+}
+
+/**
+ * The findings a build still has (new or unchanged), in the order they were stored. Plain rows:
+ * a model instance per row cost about as much as the query itself, with thousands of findings.
+ */
+async function findStandingFindings(buildId: number): Promise<Finding[]> {
+  const rows = (await FindingRecord.findAll({
+    where: { buildId, status: { [Op.in]: ['new', 'unchanged'] } },
+    attributes: [...FINDING_COLUMN_NAMES],
+    order: [['id', 'ASC']],
+    raw: true
+  })) as unknown as FindingColumns[];
+  return rows.map(findingOf);
 }
 
 async function findByIdempotencyKey(projectId: number, key: string | null | undefined): Promise<Build | null> {
