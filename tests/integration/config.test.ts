@@ -80,7 +80,12 @@ describe('reading the configuration', () => {
       code: 'config.invalid',
       says: /ORIGIN must be an http\(s\) URL.*got "localhost:3000"/
     },
-    { env: { SIGNIN_MAX_FAILURES: 'many' }, code: 'config.invalid', says: /SIGNIN_MAX_FAILURES/ }
+    { env: { SIGNIN_MAX_FAILURES: 'many' }, code: 'config.invalid', says: /SIGNIN_MAX_FAILURES/ },
+    {
+      env: { ORIENTRY_LINT_THREAD: 'thread' },
+      code: 'config.invalid',
+      says: /ORIENTRY_LINT_THREAD must be worker or main/
+    }
   ])('refuses $env with one line that names the fix ($code)', ({ env, code, says }) => {
     const error = configError(() => readConfig(env, '/srv'));
     expect(error.code).toBe(code);

@@ -16,6 +16,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
+import { getConfig } from '../config';
 import { lintFileOnDisk, type DiskLintJob, type DiskLintResult } from './lint-file-on-disk';
 import type { LintThreadAnswer } from './lint-thread-messages';
 
@@ -63,7 +64,7 @@ export function useLintWorkerScript(script: string | null): void {
 
 /** Where this process lints uploads (reported by the health route). */
 export function lintThreadMode(): LintThreadMode {
-  if (process.env.ORIENTRY_LINT_THREAD === 'main') return 'main';
+  if (getConfig().lintThread === 'main') return 'main';
   scriptPath ??= findWorkerScript();
   return scriptPath === null ? 'main' : 'worker';
 }
