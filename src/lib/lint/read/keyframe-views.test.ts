@@ -29,6 +29,7 @@ function accessorsOf(document: Document) {
       count: accessor.getCount(),
       componentType: accessor.getComponentType(),
       normalized: accessor.getNormalized(),
+      sparse: accessor.getSparse(),
       values: Array.from(accessor.getArray() ?? [])
     }));
 }

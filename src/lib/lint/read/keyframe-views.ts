@@ -8,8 +8,8 @@
  * the whole read measured about as long as copying 46 MB. A lint only reads keys, so before the
  * reader runs, each animation accessor that can be viewed as it lies (in a buffer view, not
  * sparse, tightly packed, aligned for its component type, not meshopt-compressed) loses its
- * `bufferView` in the JSON handed to the reader, which then allocates nothing for it; after the
- * read the accessor gets the view. Anything else is left to the reader as before. The Document
+ * `bufferView` and count in the JSON handed to the reader, which then allocates nothing for it;
+ * after the read the accessor gets the view. Anything else is left to the reader as before. The Document
  * then shares the caller's bytes: only for reads that never write the Document back (lint).
  */
 import type { Document, TypedArray } from '@gltf-transform/core';
@@ -63,7 +63,9 @@ export function detachKeyframeAccessors(json: GltfJson, bufferBytes: readonly (U
     const accessor = accessors[accessorIndex];
     const array = accessor && viewOf(accessor, json, bufferBytes);
     if (!array) continue;
-    accessors[accessorIndex] = { ...accessor, bufferView: undefined };
+    // No bufferView alone would make the reader allocate a zero-filled array of `count` elements
+    // and mark the accessor sparse; with count 0 that array is empty. Both are undone on attach.
+    accessors[accessorIndex] = { ...accessor, bufferView: undefined, count: 0 };
     views.push({ accessorIndex, array });
   }
   return views;
@@ -77,7 +79,7 @@ export function attachKeyframeViews(document: Document, views: readonly Keyframe
   if (accessors.length !== accessorCount) {
     throw new Error(`the reader made ${accessors.length} accessors for ${accessorCount} in the file`);
   }
-  for (const { accessorIndex, array } of views) accessors[accessorIndex].setArray(array);
+  for (const { accessorIndex, array } of views) accessors[accessorIndex].setArray(array).setSparse(false);
 }
 
 function viewOf(
