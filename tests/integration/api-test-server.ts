@@ -4,21 +4,17 @@
  * same database (the SQLite file, WAL lets both in, or in the PostgreSQL pass a fresh PostgreSQL
  * database) to seed projects, people and tokens and to count rows.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { hashPassword } from '$lib/server/auth/password';
 import type { Database } from '$lib/server/db/instance';
 import { Project, ProjectMembership, User } from '$lib/server/db/models';
 import type { ProjectRole, UserRole } from '$lib/types/roles';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
-import { ensureBuild } from '../../scripts/ensure-build.js';
 import { openDatabaseUnderTest } from './helpers/database-under-test';
-
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+import { copyOfBuild, freePort, launchServer, ROOT, stopChild } from './helpers/server-process';
 
 /** A running server with its data. */
 export interface ApiTestServer {
@@ -61,7 +57,7 @@ export async function startApiTestServer(
   options: ApiTestServerOptions = {}
 ): Promise<ApiTestServer> {
   const cwd = options.cwd ?? ROOT;
-  const buildDir = await copyOfBuild();
+  const buildDir = await copyOfBuild('api-build');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-api-'));
   const underTest = await openDatabaseUnderTest({ sqliteFile: path.join(dataDir, 'api.db') });
   const { database } = underTest;
@@ -81,7 +77,7 @@ export async function startApiTestServer(
   };
   let child: ChildProcess;
   try {
-    child = await launch(buildDir, cwd, serverEnv, url, output);
+    child = await launchServer({ buildDir, cwd, env: serverEnv, url, output });
   } catch (error) {
     await underTest.remove();
     fs.rmSync(dataDir, { recursive: true, force: true });
@@ -100,7 +96,7 @@ export async function startApiTestServer(
     },
     async restart() {
       await stopChild(server.child);
-      server.child = await launch(buildDir, cwd, serverEnv, url, output);
+      server.child = await launchServer({ buildDir, cwd, env: serverEnv, url, output });
     },
     async remove() {
       await stopChild(server.child);
@@ -110,94 +106,6 @@ export async function startApiTestServer(
     }
   };
   return server;
-}
-
-async function launch(
-  buildDir: string,
-  cwd: string,
-  env: NodeJS.ProcessEnv,
-  url: string,
-  output: string[]
-): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [buildDir], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] });
-  for (const stream of [child.stdout!, child.stderr!]) {
-    stream.setEncoding('utf8');
-    stream.on('data', (text: string) => output.push(...text.split('\n').filter(Boolean)));
-  }
-  const deadline = Date.now() + 30_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null || child.signalCode !== null) {
-      throw new Error(`The test server exited early:\n${output.join('\n')}`);
-    }
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return child;
-    } catch {
-      // Connection refused until the server listens: expected while it starts.
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  child.kill('SIGKILL');
-  throw new Error(`The test server did not answer within 30 s:\n${output.join('\n')}`);
-}
-
-async function stopChild(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  child.kill(signal);
-  await exited;
-}
-
-/** A TCP port nobody listens on right now. */
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
-
-/**
- * A private copy of the current build, so a rebuild started by another test file cannot swap
- * route chunks under this file's running server. It lives under node_modules/.cache so the
- * server still resolves its packages from the project's node_modules.
- */
-async function copyOfBuild(): Promise<string> {
-  const copy = path.join(ROOT, 'node_modules', '.cache', 'orientry', `api-build-${process.pid}-${Date.now()}`);
-  await withBuildLock(async () => {
-    ensureBuild();
-    fs.cpSync(path.join(ROOT, 'build'), copy, { recursive: true });
-  });
-  return copy;
-}
-
-/**
- * Runs `work` under a lock folder, so test files starting together in parallel workers build
- * once instead of overwriting each other's build/ folder.
- */
-async function withBuildLock(work: () => Promise<void>): Promise<void> {
-  const lock = path.join(ROOT, 'node_modules', '.cache', 'orientry', 'build.lock');
-  fs.mkdirSync(path.dirname(lock), { recursive: true });
-  const deadline = Date.now() + 600_000;
-  for (;;) {
-    try {
-      fs.mkdirSync(lock);
-      break;
-    } catch (error) {
-      if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
-      // A lock older than the longest build is left by a killed run: take it over.
-      if (Date.now() - fs.statSync(lock).mtimeMs > 600_000) fs.rmSync(lock, { recursive: true, force: true });
-      if (Date.now() > deadline) throw new Error(`Waited 10 minutes for the build lock ${lock}.`, { cause: error });
-      await new Promise((resolve) => setTimeout(resolve, 500));
-    }
-  }
-  try {
-    await work();
-  } finally {
-    fs.rmSync(lock, { recursive: true, force: true });
-  }
 }
 
 /** A seeded person with their password. */

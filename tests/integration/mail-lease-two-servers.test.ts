@@ -6,20 +6,18 @@
  * message arrive exactly once across the two. Runs on SQLite (both servers on one file) and, in
  * the PostgreSQL pass, on one PostgreSQL database.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
+import type net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { SMTPServer } from 'smtp-server';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MailMessage } from '$lib/server/db/models';
 import * as outbox from '$lib/server/mail/outbox';
-import { ensureBuild } from '../../scripts/ensure-build.js';
 import { dialectUnderTest, openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
+import { copyOfBuild, freePort, launchServer, stopChild } from './helpers/server-process';
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 const MESSAGE_COUNT = 40;
 /**
  * How long each SMTP server holds a message before accepting it. Workers poll every 2 s and send
@@ -81,7 +79,7 @@ const servers: AppServer[] = [];
 beforeAll(async () => {
   // The test process migrates first; both servers then find the schema current.
   database = await openDatabaseUnderTest();
-  buildDir = await copyOfBuild();
+  buildDir = await copyOfBuild('lease-build');
   for (let index = 0; index < 2; index++) smtps.push(await startRecordingSmtp());
   for (const smtp of smtps) servers.push(await startAppServer(smtp.url));
 });
@@ -131,85 +129,18 @@ describe(`two servers sharing one ${dialectUnderTest() === 'postgres' ? 'Postgre
 
 async function startAppServer(smtpUrl: string): Promise<AppServer> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-lease-'));
-  const port = await freePort();
-  const url = `http://127.0.0.1:${port}`;
+  const url = `http://127.0.0.1:${await freePort()}`;
   const output: string[] = [];
-  const child = spawn(process.execPath, [buildDir], {
-    cwd: ROOT,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      AUTH_SECRET: 'lease-test-secret-that-is-at-least-32-characters',
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      ORIGIN: url,
-      DATA_DIR: dataDir,
-      DATABASE_URL: database.url,
-      SMTP_URL: smtpUrl
-    },
-    stdio: ['ignore', 'pipe', 'pipe']
-  });
-  for (const stream of [child.stdout!, child.stderr!]) {
-    stream.setEncoding('utf8').on('data', (text: string) => output.push(...text.split('\n').filter(Boolean)));
-  }
-  const server = { child, dataDir, output };
-  const deadline = Date.now() + 30_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`A lease test server exited early:\n${output.join('\n')}`);
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return server;
-    } catch {
-      // Connection refused until the server listens: expected while it starts.
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  await stopChild(child);
-  throw new Error(`A lease test server did not answer within 30 s:\n${output.join('\n')}`);
-}
-
-async function stopChild(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  child.kill('SIGTERM');
-  await exited;
-}
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
-
-/**
- * A private copy of the current build, made under the same lock folder the API test server uses,
- * so test files starting together build once and a rebuild cannot swap files under a running server.
- */
-async function copyOfBuild(): Promise<string> {
-  const cache = path.join(ROOT, 'node_modules', '.cache', 'orientry');
-  const lock = path.join(cache, 'build.lock');
-  const copy = path.join(cache, `lease-build-${process.pid}-${Date.now()}`);
-  fs.mkdirSync(cache, { recursive: true });
-  const deadline = Date.now() + 600_000;
-  for (;;) {
-    try {
-      fs.mkdirSync(lock);
-      break;
-    } catch (error) {
-      if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
-      if (Date.now() > deadline) throw new Error(`Waited 10 minutes for the build lock ${lock}.`, { cause: error });
-      await new Promise((resolve) => setTimeout(resolve, 500));
-    }
-  }
-  try {
-    ensureBuild();
-    fs.cpSync(path.join(ROOT, 'build'), copy, { recursive: true });
-  } finally {
-    fs.rmSync(lock, { recursive: true, force: true });
-  }
-  return copy;
+  const env = {
+    ...process.env,
+    NODE_ENV: 'production',
+    AUTH_SECRET: 'lease-test-secret-that-is-at-least-32-characters',
+    PORT: new URL(url).port,
+    HOST: '127.0.0.1',
+    ORIGIN: url,
+    DATA_DIR: dataDir,
+    DATABASE_URL: database.url,
+    SMTP_URL: smtpUrl
+  };
+  return { child: await launchServer({ buildDir, env, url, output }), dataDir, output };
 }

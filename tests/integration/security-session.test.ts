@@ -9,8 +9,7 @@
  * The HTTPS servers are extra processes started from the test server's own build copy, on the
  * same data folder and database.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import net from 'node:net';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ProjectPolicy } from '$lib/server/db/models';
 import { diverGlb } from './api-fixtures';
@@ -22,6 +21,7 @@ import {
   type ApiTestServer,
   type SeededUser
 } from './api-test-server';
+import { freePort, launchServer } from './helpers/server-process';
 
 const PUBLIC_HTTPS_ORIGIN = 'https://orientry.lanternfish.example';
 const ELSEWHERE = 'https://elsewhere.example';
@@ -31,52 +31,30 @@ let secret: string;
 let lead: SeededUser;
 const siblings: ChildProcess[] = [];
 
-/** A free TCP port on loopback. */
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
-
 /**
  * Starts another server process from the test server's build copy on the same data, with `env`
  * instead of the test server's ORIGIN. Returns its loopback URL.
  */
 async function startSibling(env: Record<string, string>): Promise<string> {
-  const port = await freePort();
-  const url = `http://127.0.0.1:${port}`;
+  const url = `http://127.0.0.1:${await freePort()}`;
   const base = { ...process.env };
   delete base.ORIGIN;
-  const child = spawn(process.execPath, [server.child.spawnargs[1]], {
+  const child = await launchServer({
+    buildDir: server.child.spawnargs[1],
+    url,
     env: {
       ...base,
       NODE_ENV: 'production',
       AUTH_SECRET: 'api-test-secret-that-is-at-least-32-characters-long',
       DATA_DIR: server.dataDir,
       DATABASE_URL: server.databaseUrl,
-      PORT: String(port),
+      PORT: new URL(url).port,
       HOST: '127.0.0.1',
       ...env
-    },
-    stdio: 'ignore'
+    }
   });
   siblings.push(child);
-  const deadline = Date.now() + 30_000;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`The HTTPS server exited with ${child.exitCode}.`);
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return url;
-    } catch {
-      // Connection refused until it listens: expected while it starts.
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  throw new Error('The HTTPS server did not answer within 30 s.');
+  return url;
 }
 
 /** Posts the sign-in form to `url` with `headers` and returns the raw answer (redirects not followed). */
