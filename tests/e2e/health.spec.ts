@@ -4,12 +4,13 @@ import packageJson from '../../package.json' with { type: 'json' };
 test('GET /api/health answers without sign-in, with versions and the database state', async ({ request }) => {
   const response = await request.get('/api/health');
   expect(response.status()).toBe(200);
-  expect(await response.json()).toMatchObject({
+  const body = await response.json();
+  expect(body).toMatchObject({
     status: 'ok',
     version: packageJson.version,
     engineVersion: expect.stringMatching(/^\d+\.\d+\.\d+$/),
-    database: { ok: true },
-    // The production build lints uploads on its own thread (build/lint-worker.mjs).
-    lintThread: 'worker'
+    database: { ok: true }
   });
+  // The production build lints uploads on threads of their own (build/lint-worker.mjs).
+  expect(body.lintThreads).toBeGreaterThan(0);
 });

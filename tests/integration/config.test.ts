@@ -82,10 +82,11 @@ describe('reading the configuration', () => {
     },
     { env: { SIGNIN_MAX_FAILURES: 'many' }, code: 'config.invalid', says: /SIGNIN_MAX_FAILURES/ },
     {
-      env: { ORIENTRY_LINT_THREAD: 'thread' },
+      env: { ORIENTRY_LINT_THREADS: 'many' },
       code: 'config.invalid',
-      says: /ORIENTRY_LINT_THREAD must be worker or main/
-    }
+      says: /ORIENTRY_LINT_THREADS must be a whole number from 0 to 64/
+    },
+    { env: { ORIENTRY_LINT_THREADS: '1.5' }, code: 'config.invalid', says: /ORIENTRY_LINT_THREADS must be a whole/ }
   ])('refuses $env with one line that names the fix ($code)', ({ env, code, says }) => {
     const error = configError(() => readConfig(env, '/srv'));
     expect(error.code).toBe(code);

@@ -1,7 +1,7 @@
 import { ENGINE_VERSION } from '../lint/version';
 import { APP_VERSION } from './app-version';
 import { getDatabase, type Database } from './db/instance';
-import { lintThreadMode, type LintThreadMode } from './ingest/lint-thread';
+import { lintThreadCount } from './ingest/lint-thread';
 
 /** What GET /api/health answers: `degraded` (HTTP 503) when the database does not respond. */
 export interface HealthReport {
@@ -9,8 +9,8 @@ export interface HealthReport {
   version: string;
   engineVersion: string;
   database: { ok: boolean; latencyMs: number };
-  /** Where uploads are linted: `worker` (a thread of their own) or `main` (the request's thread). */
-  lintThread: LintThreadMode;
+  /** Threads that lint uploads; 0 when they are linted on the request's own thread. */
+  lintThreads: number;
 }
 
 /**
@@ -33,6 +33,6 @@ export async function checkHealth(database: Database = getDatabase()): Promise<H
     version: APP_VERSION,
     engineVersion: ENGINE_VERSION,
     database: { ok, latencyMs },
-    lintThread: lintThreadMode()
+    lintThreads: lintThreadCount()
   };
 }

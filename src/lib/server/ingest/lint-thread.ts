@@ -1,16 +1,16 @@
 /**
- * Runs upload lints on one worker thread beside the server's main thread, so a build's assets
- * are linted on the second core while the main thread goes on receiving the rest of the upload
- * (and answering every other request) instead of stalling between chunks.
+ * Runs upload lints on worker threads beside the server's main thread, so a build's assets are
+ * linted on the other cores while the main thread goes on receiving the rest of the upload (and
+ * answering every other request) instead of stalling between chunks.
  *
- * Design notes: one thread per server process, started on the first job and kept (unref'd, so it
- * never holds the process open). Jobs queue on it in the order they are given; a build's linter
- * gives them one at a time anyway. The thread runs build/lint-worker.mjs, an esbuild bundle of
- * lint-worker.ts made by `npm run build` next to the app; where that file is not found (vite dev,
- * vitest running the sources) or `ORIENTRY_LINT_THREAD=main`, jobs run on the calling thread, with
- * the same code and the same results. A thread that dies fails the jobs it held (the upload
- * answers 500, nothing is stored) and the next job starts a new one.
- * Measured with bench/ingest.bench.ts (50 GLBs, 100 MB, 2-core machine): see README's tables.
+ * Design notes: up to `ORIENTRY_LINT_THREADS` threads per server process (default: one per core,
+ * at most 4), each started when a job finds every running thread busy and kept (unref'd, so none
+ * holds the process open). A job goes to the thread with the fewest jobs waiting. The threads run
+ * build/lint-worker.mjs, an esbuild bundle of lint-worker.ts made by `npm run build` next to the
+ * app; where that file is not found (vite dev, vitest running the sources) or with
+ * `ORIENTRY_LINT_THREADS=0`, jobs run on the calling thread, with the same code and the same
+ * results. A thread that dies fails the jobs it held (the upload answers 500, nothing is stored)
+ * and later jobs start a new one. Measured with bench/ingest.bench.ts: see README's tables.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -23,28 +23,26 @@ import type { LintThreadAnswer } from './lint-thread-messages';
 /** File name of the bundled thread entry, in the app's build folder. */
 export const LINT_WORKER_FILE = 'lint-worker.mjs';
 
-/** Where lints run: on the lint thread, or on the caller's thread. */
-export type LintThreadMode = 'worker' | 'main';
-
 interface PendingJob {
   resolve: (result: DiskLintResult) => void;
   reject: (error: Error) => void;
 }
 
-/** The running thread and the jobs it has not answered yet. */
+/** A running thread and the jobs it has not answered yet. */
 interface LintThread {
   worker: Worker;
   pending: Map<number, PendingJob>;
 }
 
-let thread: LintThread | null = null;
+let threads: LintThread[] = [];
 let nextJobId = 1;
 let scriptPath: string | null | undefined;
 
-/** Lints `job` on the lint thread when there is one, else here. Rejects only for bugs or a dead thread. */
+/** Lints `job` on a lint thread when there are any, else here. Rejects only for bugs or a dead thread. */
 export function lintOffMainThread(job: DiskLintJob): Promise<DiskLintResult> {
-  if (lintThreadMode() === 'main') return lintFileOnDisk(job);
-  const { worker, pending } = thread ?? startThread();
+  const limit = lintThreadCount();
+  if (limit === 0) return lintFileOnDisk(job);
+  const { worker, pending } = pickThread(limit);
   const id = nextJobId++;
   return new Promise<DiskLintResult>((resolve, reject) => {
     pending.set(id, { resolve, reject });
@@ -52,21 +50,30 @@ export function lintOffMainThread(job: DiskLintJob): Promise<DiskLintResult> {
   });
 }
 
+/** How many lint threads this process may run; 0 when lints run on the calling thread. */
+export function lintThreadCount(): number {
+  const configured = getConfig().lintThreads;
+  if (configured === 0) return 0;
+  scriptPath ??= findWorkerScript();
+  return scriptPath === null ? 0 : configured;
+}
+
 /**
- * Makes the lint thread run `script` (a built lint-worker.mjs, or any module that answers as it
+ * Makes lint threads run `script` (a built lint-worker.mjs, or any module that answers as it
  * does) from the next job on; null goes back to finding the bundled one. For tests.
  */
 export function useLintWorkerScript(script: string | null): void {
   scriptPath = script ?? undefined;
-  void thread?.worker.terminate();
-  thread = null;
+  for (const thread of threads) void thread.worker.terminate();
+  threads = [];
 }
 
-/** Where this process lints uploads (reported by the health route). */
-export function lintThreadMode(): LintThreadMode {
-  if (getConfig().lintThread === 'main') return 'main';
-  scriptPath ??= findWorkerScript();
-  return scriptPath === null ? 'main' : 'worker';
+/** An idle thread, a new one while fewer than `limit` run, else the one with the fewest jobs waiting. */
+function pickThread(limit: number): LintThread {
+  let least: LintThread | null = null;
+  for (const thread of threads) if (!least || thread.pending.size < least.pending.size) least = thread;
+  if (least && (least.pending.size === 0 || threads.length >= limit)) return least;
+  return startThread();
 }
 
 function startThread(): LintThread {
@@ -81,7 +88,7 @@ function startThread(): LintThread {
     else job.reject(Object.assign(new Error(`lint thread: ${answer.error.message}`), { stack: answer.error.stack }));
   });
   const failAll = (reason: Error) => {
-    if (thread === started) thread = null;
+    threads = threads.filter((thread) => thread !== started);
     for (const job of pending.values()) job.reject(reason);
     pending.clear();
   };
@@ -89,7 +96,7 @@ function startThread(): LintThread {
   worker.on('exit', (code) => failAll(new Error(`lint thread stopped (exit code ${code}) before answering`)));
   // Last: adding a 'message' listener refs the thread again, and an unref'd one never holds the process open.
   worker.unref();
-  thread = started;
+  threads.push(started);
   return started;
 }
 

@@ -1,6 +1,7 @@
 /**
  * Linting an upload while it arrives: each asset is linted (or its stored lint reused) as soon
- * as its file is wholly received, one at a time, while the next files are still streaming in.
+ * as its file is wholly received, as many at once as there are lint threads, while the next files
+ * are still streaming in.
  * When the upload ends only the assets not done yet are linted, so the client waits for little
  * more than the last file's lint after its last byte.
  *
@@ -15,7 +16,9 @@
  */
 import { isAssetIncluded } from '../../lint/asset-filter';
 import type { Policy } from '../../lint/policy';
+import pLimit from 'p-limit';
 import { isAssetFile, lintReceivedAsset, readAllSideFiles, skippedAsset, type LintedAsset } from './lint-upload';
+import { lintThreadCount } from './lint-thread';
 import type { ReceivedFile } from './receive-upload';
 
 /** The linter of one upload. */
@@ -28,7 +31,7 @@ export interface UploadLinter {
    * @throws the first unexpected failure of a lint (a bug or a database error).
    */
   finish(files: readonly ReceivedFile[]): Promise<LintedAsset[]>;
-  /** Stops taking work and waits for the lint under way, for an upload that failed. Never throws. */
+  /** Stops taking work and waits for the lints under way, for an upload that failed. Never throws. */
   settle(): Promise<void>;
 }
 
@@ -36,7 +39,9 @@ export interface UploadLinter {
 export function createUploadLinter(filesFolder: string, policy: Policy, policyVersion: string): UploadLinter {
   const digests = new Map<string, string>();
   const finals = new Map<string, LintedAsset>();
-  let queue: Promise<void> = Promise.resolve();
+  // As many lints at once as there are lint threads; one at a time when they run on this thread.
+  const limit = pLimit(Math.max(1, lintThreadCount()));
+  const early: Promise<void>[] = [];
   let failure: { error: unknown } | null = null;
   let isStopped = false;
 
@@ -50,33 +55,32 @@ export function createUploadLinter(filesFolder: string, policy: Policy, policyVe
     received(file) {
       digests.set(file.path, file.sha256);
       if (!isAssetFile(file.path) || !isAssetIncluded(file.path, policy)) return;
-      // One lint at a time, in arrival order; a failure is kept for finish() to throw.
-      queue = queue
-        .then(() => lintEarly(file))
-        .catch((error: unknown) => {
+      // Started in arrival order; a failure is kept for finish() to throw.
+      early.push(
+        limit(() => lintEarly(file)).catch((error: unknown) => {
           failure ??= { error };
-        });
+        })
+      );
     },
 
     async finish(files) {
-      await queue;
+      await Promise.all(early);
       if (failure) throw failure.error;
       for (const file of files) digests.set(file.path, file.sha256);
       const assets = files.filter((file) => isAssetFile(file.path)).sort((a, b) => compareText(a.path, b.path));
-      const linted: LintedAsset[] = [];
-      for (const file of assets) {
-        if (!isAssetIncluded(file.path, policy)) linted.push(skippedAsset(file));
-        else
-          linted.push(
-            finals.get(file.path) ?? (await lintReceivedAsset(file, filesFolder, policy, policyVersion, digests))
+      return Promise.all(
+        assets.map(async (file) => {
+          if (!isAssetIncluded(file.path, policy)) return skippedAsset(file);
+          return (
+            finals.get(file.path) ?? limit(() => lintReceivedAsset(file, filesFolder, policy, policyVersion, digests))
           );
-      }
-      return linted;
+        })
+      );
     },
 
     async settle() {
       isStopped = true;
-      await queue;
+      await Promise.all(early);
     }
   };
 }
