@@ -1,4 +1,4 @@
-/** What the lint thread answers for one job (see lint-worker.ts and lint-thread.ts). */
+/** What a lint thread answers for one job (see lint-worker.ts and lint-thread.ts). */
 import type { DiskLintResult } from './lint-file-on-disk';
 
 export type LintThreadAnswer =

@@ -31,7 +31,7 @@ export function isAssetFile(uploadPath: string): boolean {
 }
 
 /**
- * Reuses a stored lint of the asset or lints it now (on the lint thread when there is one),
+ * Reuses a stored lint of the asset or lints it now (on a lint thread when there are any),
  * reading side files from `filesFolder`.
  * @param digests the SHA-256 of every wholly received file by its upload-relative path; a file
  *   not in it (not received yet, or not sent) reads as missing. The lint sees it as it is now.

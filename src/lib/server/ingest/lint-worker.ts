@@ -1,5 +1,5 @@
 /**
- * The lint thread's entry (bundled to build/lint-worker.mjs by scripts/build-lint-worker.js):
+ * A lint thread's entry (bundled to build/lint-worker.mjs by scripts/build-lint-worker.js):
  * takes {@link DiskLintJob}s from the server's main thread and answers each with its result or
  * the error that stopped it. Jobs are independent; each answer carries its job's id.
  */

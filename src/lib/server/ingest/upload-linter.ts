@@ -12,7 +12,7 @@
  * file known. A lone `.glb`, the common case, is final at once. Measured with the 50 GLBs of
  * 2 MB of bench/ingest.bench.ts sent by the CLI: the lints left when the last byte arrived took
  * about 10 ms, against about 1 s for the 50 lints that all ran after the upload before. The lints
- * themselves run on the lint thread (lint-thread.ts), so receiving never waits for them.
+ * themselves run on the lint threads (lint-thread.ts), so receiving never waits for them.
  */
 import { isAssetIncluded } from '../../lint/asset-filter';
 import type { Policy } from '../../lint/policy';
