@@ -12,12 +12,11 @@
  * result against the stored fingerprint; a row that cannot be recovered means a fresh lint.
  */
 import path from 'node:path';
-import { Op } from 'sequelize';
 import { fingerprintOf, type Finding } from '../../lint/finding';
 import type { AssetReport, AssetStats } from '../../lint/lint-report';
 import { ENGINE_VERSION } from '../../lint/version';
-import { findingOf } from '../builds/finding-columns';
-import { Asset, Build, FindingRecord } from '../db/models';
+import { findStandingFindings } from '../builds/find-standing-findings';
+import { Asset, Build } from '../db/models';
 import { assetSideFiles } from './asset-side-file';
 import type { SideFileDigests } from './side-file-reader';
 
@@ -53,11 +52,7 @@ export async function findReusableLint(
   for (const candidate of candidates) {
     const sideFiles = await sideFilesMatching(candidate.id, asset.path, digestOf);
     if (sideFiles === null) continue;
-    const rows = await FindingRecord.findAll({
-      where: { assetId: candidate.id, status: { [Op.in]: ['new', 'unchanged'] } },
-      order: [['id', 'ASC']]
-    });
-    const findings = restamp(rows.map(findingOf), candidate.path, asset.path);
+    const findings = restamp(await findStandingFindings({ assetId: candidate.id }), candidate.path, asset.path);
     if (findings === null) continue;
     return {
       report: {

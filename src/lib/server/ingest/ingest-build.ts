@@ -7,15 +7,14 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { Op, UniqueConstraintError } from 'sequelize';
-import type { Finding } from '../../lint/finding';
+import { UniqueConstraintError } from 'sequelize';
 import { policyVersionOf } from '../../lint/policy';
 import { ENGINE_VERSION } from '../../lint/version';
 import { findBaselineBuild } from '../builds/find-baseline-build';
 import { findProjectPolicy } from '../builds/find-project-policy';
-import { FINDING_COLUMN_NAMES, findingOf, type FindingColumns } from '../builds/finding-columns';
+import { findStandingFindings } from '../builds/find-standing-findings';
 import { getConfig } from '../config';
-import { Build, FindingRecord, Waiver, type Project } from '../db/models';
+import { Build, Waiver, type Project } from '../db/models';
 import { ApiError } from './api-error';
 import { storeBlob } from './blob-store';
 import { parseBuildMeta } from './build-meta';
@@ -86,7 +85,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
 
       const builtAt = meta.builtAt ?? new Date();
       const baseline = await findBaselineBuild(project, builtAt);
-      const baselineFindings = baseline ? await findStandingFindings(baseline.id) : null;
+      const baselineFindings = baseline ? await findStandingFindings({ buildId: baseline.id }) : null;
       const waivers = await Waiver.findAll({ where: { projectId: project.id, status: 'approved' } });
       const plan = planBuild(
         checked.map((asset) => asset.report),
@@ -125,20 +124,6 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       }
     }
   });
-}
-
-/**
- * The findings a build still has (new or unchanged), in the order they were stored. Plain rows:
- * a model instance per row cost about as much as the query itself, with thousands of findings.
- */
-async function findStandingFindings(buildId: number): Promise<Finding[]> {
-  const rows = (await FindingRecord.findAll({
-    where: { buildId, status: { [Op.in]: ['new', 'unchanged'] } },
-    attributes: [...FINDING_COLUMN_NAMES],
-    order: [['id', 'ASC']],
-    raw: true
-  })) as unknown as FindingColumns[];
-  return rows.map(findingOf);
 }
 
 async function findByIdempotencyKey(projectId: number, key: string | null | undefined): Promise<Build | null> {
