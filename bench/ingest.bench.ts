@@ -21,6 +21,7 @@ import { pathToFileURL } from 'node:url';
 import { writeIngestAssets, type IngestAssets } from './support/ingest-assets';
 import { exitedChildrenCpuMs, processCpuMs } from './support/cpu-time';
 import { startIngestServer, type IngestServer } from './support/ingest-server';
+import { copyBuild } from './support/orientry-server';
 import { formatMarkdownTable, formatMegabytes, formatTable, type BenchRow } from './support/measure';
 
 const ROOT = process.cwd();
@@ -47,7 +48,7 @@ async function main(): Promise<void> {
     ensureBuild: () => boolean;
   };
   ensureBuild();
-  const buildDir = copyBuild();
+  const buildDir = copyBuild(ROOT);
 
   const checkMs: number[] = [];
   const submitMs: number[] = [];
@@ -202,16 +203,6 @@ async function timeCli(
     throw new Error(`orientry ${args[0]} exited ${status}:\n${stderr}`);
   }
   return { ms, cpuMs, stdout, stderr, marks };
-}
-
-/** A private copy of build/, beside node_modules so it still finds its packages. */
-function copyBuild(): string {
-  const copy = path.join(ROOT, 'node_modules', '.cache', 'orientry', `bench-build-${process.pid}`);
-  fs.rmSync(copy, { recursive: true, force: true });
-  fs.cpSync(path.join(ROOT, 'build'), copy, { recursive: true });
-  // Inside node_modules the repository's package.json no longer applies: mark the files as ES modules.
-  fs.writeFileSync(path.join(copy, 'package.json'), '{ "type": "module" }\n');
-  return copy;
 }
 
 function run(command: string, args: string[]): void {

@@ -1,9 +1,7 @@
 /**
- * A throw-away Orientry server for the ingestion benchmark: the production build (`node build`,
- * from a private copy so a rebuild elsewhere cannot swap files under it) on a free port, with its
- * own data folder and SQLite database, a seeded project and a submit token.
+ * A throw-away Orientry server for the ingestion benchmark: the production server of
+ * orientry-server.ts on its own SQLite database, with a seeded project and a submit token.
  */
-import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -11,7 +9,7 @@ import { migrate } from '$lib/server/db/migrate';
 import { openDatabase, type Database } from '$lib/server/db/instance';
 import { Build, Project } from '$lib/server/db/models';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
-import { freePort, stopChild, waitForHealth } from './server-process';
+import { startOrientryServer } from './orientry-server';
 
 /** A running bench server. */
 export interface IngestServer {
@@ -22,67 +20,56 @@ export interface IngestServer {
   pid: number;
   /** The server's own time for the latest build (`durationMs`: receive, lint, compare, before the write). */
   latestBuildDurationMs(): Promise<number | null>;
-  /** Stops the server and deletes its data folder. */
+  /** Stops the server and deletes its database. */
   remove(): Promise<void>;
 }
 
 /**
- * Seeds a fresh data folder and starts `node <buildDir>` in `root` with an unlimited body size.
- * @param buildDir a copy of build/ (see the bench's own copy step).
+ * Seeds a fresh SQLite database and starts `node <buildDir>` in `root` on it.
+ * @param buildDir a copy of build/ (see orientry-server.ts's copyBuild).
  */
 export async function startIngestServer(root: string, buildDir: string): Promise<IngestServer> {
-  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-bench-'));
-  const storage = path.join(dataDir, 'orientry.db');
+  const databaseDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orientry-bench-'));
+  const storage = path.join(databaseDir, 'orientry.db');
   const database: Database = openDatabase({ dialect: 'sqlite', storage });
-  await migrate(database.sequelize);
-  const project = await Project.create({ slug: 'tidewatch', name: 'Tidewatch', baseBranch: 'main' });
-  const { secret } = await apiTokens.create(project.id, 'Bench CI', null);
-
-  const port = await freePort();
-  const url = `http://127.0.0.1:${port}`;
-  const output: string[] = [];
-  const child = spawn(process.execPath, [buildDir], {
-    cwd: root,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      BODY_SIZE_LIMIT: 'Infinity',
-      AUTH_SECRET: 'bench-secret-that-is-at-least-32-characters-long',
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      ORIGIN: url,
-      DATA_DIR: dataDir,
-      DATABASE_URL: `sqlite:${storage}`
-    },
-    stdio: ['ignore', 'pipe', 'pipe']
-  });
-  for (const stream of [child.stdout!, child.stderr!])
-    stream.setEncoding('utf8').on('data', (text: string) => output.push(text));
+  const removeDatabase = async () => {
+    await database.sequelize.close();
+    fs.rmSync(databaseDir, { recursive: true, force: true });
+  };
+  let server: Awaited<ReturnType<typeof startOrientryServer>>;
+  let project: Project;
+  let secret: string;
   try {
-    await waitForHealth(child, url, output, 30_000);
+    await migrate(database.sequelize);
+    project = await Project.create({ slug: 'tidewatch', name: 'Tidewatch', baseBranch: 'main' });
+    ({ secret } = await apiTokens.create(project.id, 'Bench CI', null));
+    server = await startOrientryServer(root, buildDir, `sqlite:${storage}`);
+  } catch (error) {
+    await removeDatabase();
+    throw error;
+  }
+  try {
     // A server that has run a while has its routes loaded; SvelteKit loads a route's module (and
     // the lint library with it) on the route's first request. An unsigned GET of the same route
     // loads it without storing anything, so the timed upload is not billed for it.
-    await (await fetch(`${url}/api/v1/projects/${project.slug}/builds`)).arrayBuffer();
+    await (await fetch(`${server.url}/api/v1/projects/${project.slug}/builds`)).arrayBuffer();
   } catch (error) {
-    await stopChild(child);
-    await database.sequelize.close();
-    fs.rmSync(dataDir, { recursive: true, force: true });
+    await server.stop();
+    await removeDatabase();
     throw error;
   }
   return {
-    url,
+    url: server.url,
     project: project.slug,
     secret,
-    pid: child.pid!,
+    pid: server.pid,
     async latestBuildDurationMs() {
       const build = await Build.findOne({ order: [['id', 'DESC']] });
       return build?.durationMs ?? null;
     },
     async remove() {
-      await stopChild(child);
-      await database.sequelize.close();
-      fs.rmSync(dataDir, { recursive: true, force: true });
+      await server.stop();
+      await removeDatabase();
     }
   };
 }

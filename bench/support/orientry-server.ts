@@ -24,6 +24,8 @@ export interface OrientryServer {
 export function copyBuild(root: string): string {
   const copy = path.join(root, 'node_modules', '.cache', 'orientry', `bench-build-${process.pid}-${Date.now()}`);
   fs.cpSync(path.join(root, 'build'), copy, { recursive: true });
+  // Inside node_modules the repository's package.json no longer applies: mark the files as ES modules.
+  fs.writeFileSync(path.join(copy, 'package.json'), '{ "type": "module" }\n');
   return copy;
 }
 
