@@ -10,6 +10,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { hashPassword } from '$lib/server/auth/password';
 import type { Database } from '$lib/server/db/instance';
+import type { PostedBuild } from '../../cli/post-build';
 import { Project, ProjectMembership, User } from '$lib/server/db/models';
 import type { ProjectRole, UserRole } from '$lib/types/roles';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
@@ -165,6 +166,14 @@ export async function signIn(server: ApiTestServer, user: SeededUser): Promise<s
 export interface UploadFile {
   path: string;
   bytes: Uint8Array | string;
+}
+
+/**
+ * The body of the upload route's 201/200 answer: the build as the CLI reads it (its zod schema in
+ * cli/post-build.ts), plus the stored time.
+ */
+export interface BuildAnswer {
+  build: PostedBuild['build'] & { createdAt: string };
 }
 
 /** Options of {@link postBuild}. */

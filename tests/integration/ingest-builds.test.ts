@@ -15,25 +15,13 @@ import {
   seedProject,
   startApiTestServer,
   type ApiTestServer,
-  type UploadFile
+  type UploadFile,
+  type BuildAnswer
 } from './api-test-server';
 
 let server: ApiTestServer;
 let secret: string;
 let projectId: number;
-
-interface BuildAnswer {
-  build: {
-    id: number;
-    verdict: 'pass' | 'fail';
-    verdictReason: string;
-    counts: Record<'error' | 'warning' | 'info' | 'new' | 'unchanged' | 'fixed' | 'waived', number>;
-    assetCount: number;
-    reportUrl: string;
-    baselineBuildId: number | null;
-    branch: string;
-  };
-}
 
 beforeAll(async () => {
   server = await startApiTestServer();

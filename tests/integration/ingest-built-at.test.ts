@@ -12,22 +12,13 @@ import {
   seedProject,
   startApiTestServer,
   type ApiTestServer,
-  type UploadFile
+  type UploadFile,
+  type BuildAnswer
 } from './api-test-server';
 
 let server: ApiTestServer;
 let secret: string;
 let projectId: number;
-
-interface BuildAnswer {
-  build: {
-    id: number;
-    verdict: 'pass' | 'fail';
-    baselineBuildId: number | null;
-    createdAt: string;
-    counts: Record<'error' | 'new' | 'unchanged' | 'waived', number>;
-  };
-}
 
 const HOUR_MS = 3600_000;
 const DAY_MS = 24 * HOUR_MS;

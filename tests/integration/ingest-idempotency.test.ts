@@ -14,7 +14,8 @@ import {
   seedProject,
   startApiTestServer,
   type ApiTestServer,
-  type UploadFile
+  type UploadFile,
+  type BuildAnswer
 } from './api-test-server';
 
 let server: ApiTestServer;
@@ -22,10 +23,6 @@ let secret: string;
 let otherSecret: string;
 let projectId: number;
 let files: UploadFile[];
-
-interface BuildAnswer {
-  build: { id: number; branch: string };
-}
 
 beforeAll(async () => {
   server = await startApiTestServer();

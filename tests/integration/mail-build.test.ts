@@ -18,7 +18,8 @@ import {
   startApiTestServer,
   type ApiTestServer,
   type SeededUser,
-  type UploadFile
+  type UploadFile,
+  type BuildAnswer
 } from './api-test-server';
 import { startSmtpSink, type SinkMessage, type SmtpSink } from './mail-smtp-sink';
 
@@ -64,10 +65,6 @@ afterAll(async () => {
   delete process.env.AUTH_SECRET;
   resetConfig();
 });
-
-interface BuildAnswer {
-  build: { id: number; verdict: 'pass' | 'fail'; reportUrl: string };
-}
 
 async function submit(
   files: UploadFile[],

@@ -7,11 +7,16 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Waiver } from '$lib/server/db/models';
 import { diverGlb } from './api-fixtures';
-import { postBuild, seedProject, seedUser, signIn, startApiTestServer, type ApiTestServer } from './api-test-server';
+import {
+  postBuild,
+  seedProject,
+  seedUser,
+  signIn,
+  startApiTestServer,
+  type ApiTestServer,
+  type BuildAnswer
+} from './api-test-server';
 
-interface BuildAnswer {
-  build: { id: number; verdict: 'pass' | 'fail'; counts: { error: number; waived: number } };
-}
 interface FindingAnswer {
   findings: {
     fingerprint: string;
