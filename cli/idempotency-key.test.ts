@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { deriveIdempotencyKey, type IdempotencyInput } from './idempotency-key';
+import { DERIVED_KEY_SHAPE, deriveIdempotencyKey, type IdempotencyInput } from './idempotency-key';
 
 const sha = (text: string) => createHash('sha256').update(text).digest('hex');
 
@@ -41,6 +41,11 @@ describe('deriveIdempotencyKey', () => {
 
   it('fits the server limit of 200 characters', () => {
     expect(deriveIdempotencyKey(BASE)).toMatch(/^cli1-[0-9a-f]{64}$/);
+  });
+
+  it('has the length of DERIVED_KEY_SHAPE, which sizes the upload before the key is known', () => {
+    expect(deriveIdempotencyKey(BASE)).toHaveLength(DERIVED_KEY_SHAPE.length);
+    expect(deriveIdempotencyKey({ ...BASE, label: null, files: [] })).toHaveLength(DERIVED_KEY_SHAPE.length);
   });
 
   const changes: { name: string; input: IdempotencyInput }[] = [

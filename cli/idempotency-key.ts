@@ -16,6 +16,9 @@ export interface IdempotencyInput {
   files: readonly { uploadPath: string; sha256: string }[];
 }
 
+/** A derived key's shape: every derived key has this length, for sizing a body before the key is known. */
+export const DERIVED_KEY_SHAPE = `cli1-${'0'.repeat(64)}`;
+
 /** Version of the derivation; bump it when the inputs change, so old and new keys never meet. */
 const DERIVATION = 'orientry-submit-v1';
 

@@ -3,8 +3,10 @@
  * the connection takes them, so a build of any size is uploaded without holding it in memory.
  * The total length is known up front from the file sizes, so the request carries a
  * Content-Length and the server can refuse an oversized upload before reading it.
+ * Each file is hashed (SHA-256) as it streams, so a part that depends on the content (the
+ * build's idempotency key) can come last without a separate reading pass before the upload.
  */
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
@@ -29,8 +31,29 @@ export interface MultipartFile {
   contentType?: string;
 }
 
+/** A file part as this stream sent it. */
+export interface SentFile {
+  fileName: string;
+  /** SHA-256 of the bytes sent, lowercase hex. */
+  sha256: string;
+}
+
+/**
+ * A text field whose value is only made when the stream reaches it, from the files sent before
+ * it. Its length must be known up front (for Content-Length): a value of another length fails
+ * the stream.
+ */
+export interface MultipartLateField {
+  kind: 'late-field';
+  name: string;
+  /** UTF-8 length of every value `value` returns. */
+  byteLength: number;
+  value: (sentFiles: readonly SentFile[]) => string;
+  contentType?: string;
+}
+
 /** One part of the body, in the order it is sent. */
-export type MultipartPart = MultipartField | MultipartFile;
+export type MultipartPart = MultipartField | MultipartFile | MultipartLateField;
 
 /** A body that can be streamed as often as an upload is attempted. */
 export interface MultipartBody {
@@ -59,7 +82,7 @@ export function createMultipartBody(parts: readonly MultipartPart[], boundary = 
   const tail = Buffer.from(`--${boundary}--${CRLF}`, 'utf8');
   let byteLength = tail.length;
   for (const [index, part] of parts.entries()) {
-    const contentLength = part.kind === 'file' ? part.byteLength : Buffer.byteLength(part.value, 'utf8');
+    const contentLength = part.kind === 'field' ? Buffer.byteLength(part.value, 'utf8') : part.byteLength;
     byteLength += heads[index].length + contentLength + CRLF.length;
   }
   return {
@@ -92,22 +115,36 @@ async function* bodyChunks(
   tail: Buffer
 ): AsyncGenerator<Uint8Array, void, undefined> {
   const crlf = Buffer.from(CRLF);
+  const sentFiles: SentFile[] = [];
   for (const [index, part] of parts.entries()) {
     yield heads[index];
     if (part.kind === 'field') yield Buffer.from(part.value, 'utf8');
-    else yield* fileChunks(part);
+    else if (part.kind === 'late-field') yield lateValue(part, sentFiles);
+    else sentFiles.push({ fileName: part.fileName, sha256: yield* fileChunks(part) });
     yield crlf;
   }
   yield tail;
 }
 
-async function* fileChunks(file: MultipartFile): AsyncGenerator<Uint8Array, void, undefined> {
+function lateValue(part: MultipartLateField, sentFiles: readonly SentFile[]): Buffer {
+  const value = Buffer.from(part.value(sentFiles), 'utf8');
+  // A bug, not an input error: the declared length is already in the Content-Length.
+  if (value.length !== part.byteLength) {
+    throw new Error(`multipart: "${part.name}" is ${value.length} bytes, declared ${part.byteLength}`);
+  }
+  return value;
+}
+
+/** Yields the file's chunks and returns the SHA-256 (hex) of what it yielded. */
+async function* fileChunks(file: MultipartFile): AsyncGenerator<Uint8Array, string, undefined> {
+  const hash = createHash('sha256');
   let byteLength = 0;
   try {
     for await (const chunk of createReadStream(file.absolutePath, { highWaterMark: READ_CHUNK_BYTES })) {
       byteLength += (chunk as Buffer).length;
       // Past the measured size the Content-Length would be a lie; stop before sending it.
       if (byteLength > file.byteLength) break;
+      hash.update(chunk as Buffer);
       yield chunk as Buffer;
     }
   } catch (error) {
@@ -124,6 +161,7 @@ async function* fileChunks(file: MultipartFile): AsyncGenerator<Uint8Array, void
       ExitCode.UsageError
     );
   }
+  return hash.digest('hex');
 }
 
 /** `--boundary`, Content-Disposition and Content-Type lines, and the blank line before the content. */

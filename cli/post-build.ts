@@ -1,9 +1,9 @@
 /**
  * Sends one build to the server: `POST /api/v1/projects/{project}/builds` with the streamed
  * multipart body, retried on network errors, timeouts and 5xx/429 answers with the same body
- * and idempotency key (in `meta` and in the `Idempotency-Key` header, so a build the server
- * already stored is answered without the body being read), and the answer validated into a
- * {@link BuildAnswer}.
+ * and idempotency key (in `meta`, and in the `Idempotency-Key` header once it is known, so a
+ * build the server already stored is answered without the body being read), and the answer
+ * validated into a {@link BuildAnswer}.
  */
 import { z } from 'zod';
 import { version as packageVersion } from '../package.json';
@@ -54,8 +54,11 @@ export interface PostBuildRequest {
   serverUrl: string;
   project: string;
   token: string;
-  /** Sent as the `Idempotency-Key` header too, so a server that stored it answers before the body is read. */
-  idempotencyKey: string;
+  /**
+   * The key when it is known before an attempt, sent as the `Idempotency-Key` header so a server
+   * that stored it answers before the body is read; null sends no header (the key is in `meta`).
+   */
+  idempotencyKey: () => string | null;
   body: MultipartBody;
   retry: RetryPolicy;
   timeoutSeconds: number;
@@ -92,6 +95,7 @@ export async function postBuild(request: PostBuildRequest, hooks: RetryHooks): P
 /** One attempt: the whole body streamed, the answer's head awaited within the timeout. */
 async function send(url: URL, request: PostBuildRequest): Promise<Response> {
   const { body, progress } = request;
+  const idempotencyKey = request.idempotencyKey();
   let sentBytes = 0;
   progress.start(body.byteLength);
   const stream = body.open((byteLength) => {
@@ -111,7 +115,7 @@ async function send(url: URL, request: PostBuildRequest): Promise<Response> {
       accept: 'application/json',
       'content-type': body.contentType,
       'content-length': String(body.byteLength),
-      'idempotency-key': request.idempotencyKey,
+      ...(idempotencyKey === null ? {} : { 'idempotency-key': idempotencyKey }),
       // The server refuses cross-site form posts; an API client states the server's own origin.
       origin: url.origin,
       'user-agent': `orientry-cli/${packageVersion}`

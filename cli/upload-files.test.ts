@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { mkdir, mkdtemp, readFile, rm, symlink, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -21,13 +20,6 @@ function input(relativePath: string): InputFile {
   return { absolutePath: join(root, relativePath), displayPath: relativePath };
 }
 
-async function sha256Of(relativePath: string): Promise<string> {
-  // Node's crypto SHA-256 (FIPS 180-4) over the bytes on disk, as an independent check.
-  return createHash('sha256')
-    .update(await readFile(join(root, relativePath)))
-    .digest('hex');
-}
-
 beforeAll(async () => {
   root = await mkdtemp(join(tmpdir(), 'orientry-upload-files-'));
   await writeGltf(createRotationDocument([CLEAN_CHANNEL]), join(root, 'chars/keeper.gltf'), 'keeper-data.bin');
@@ -45,7 +37,7 @@ afterAll(async () => {
 });
 
 describe('collectUploadFiles', () => {
-  it('adds the .bin a .gltf names, under paths relative to the root, with sizes and SHA-256', async () => {
+  it('adds the .bin a .gltf names, under paths relative to the root, with their sizes', async () => {
     const warnings: string[] = [];
     const files = await collectUploadFiles([input('props/buoy.glb'), input('chars/keeper.gltf')], root, (line) =>
       warnings.push(line)
@@ -56,7 +48,6 @@ describe('collectUploadFiles', () => {
       { uploadPath: 'props/buoy.glb', isAsset: true }
     ]);
     for (const file of files) {
-      expect(file.sha256).toBe(await sha256Of(file.uploadPath));
       expect(file.byteLength).toBe((await readFile(file.absolutePath)).length);
     }
     expect(warnings).toEqual([]);

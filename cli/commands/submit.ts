@@ -16,9 +16,9 @@ import { ExitCode } from '../exit-codes';
 import { fetchBuildReport, type ServerReportFormat } from '../fetch-build-report';
 import { expandInputs } from '../files';
 import { formatReport } from '../format-report';
-import { deriveIdempotencyKey } from '../idempotency-key';
+import { DERIVED_KEY_SHAPE, deriveIdempotencyKey } from '../idempotency-key';
 import { lintInputFile } from '../lint-input-file';
-import { createMultipartBody, type MultipartPart } from '../multipart-body';
+import { createMultipartBody, type MultipartBody, type MultipartPart } from '../multipart-body';
 import { plural } from '../plural';
 import { postBuild } from '../post-build';
 import { MAX_BACKOFF_MS, type RetryHooks, type RetryPolicy } from '../retry-policy';
@@ -42,8 +42,7 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
   for (const pattern of unmatchedPatterns) warn(`"${pattern}" matched no .glb or .gltf file`);
   const files = await collectUploadFiles(assets, rootPath, warn);
 
-  const idempotencyKey =
-    options.idempotencyKey ?? deriveIdempotencyKey({ project: options.project, ...details, files });
+  const upload = buildUpload({ project: options.project, details, files, idempotencyKey: options.idempotencyKey });
   context.stderr.write(`${PREFIX} ${describeSubmission(options, details, sources, files)}\n`);
 
   const retry: RetryPolicy = {
@@ -62,8 +61,8 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
       serverUrl: options.serverUrl,
       project: options.project,
       token,
-      idempotencyKey,
-      body: createMultipartBody(uploadParts({ ...details, idempotencyKey }, files)),
+      idempotencyKey: upload.knownKey,
+      body: upload.body,
       retry,
       timeoutSeconds: options.timeoutSeconds,
       progress
@@ -96,18 +95,53 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
   return posted.build.verdict === 'fail' ? ExitCode.GateFailed : ExitCode.Pass;
 }
 
-/** The `meta` part, then every file under its upload path (RFC 7578 keeps the order). */
-function uploadParts(meta: BuildDetails & { idempotencyKey: string }, files: readonly UploadFile[]): MultipartPart[] {
-  return [
-    { kind: 'field', name: 'meta', value: JSON.stringify(meta), contentType: 'application/json; charset=utf-8' },
-    ...files.map((file): MultipartPart => ({
-      kind: 'file',
-      name: 'file',
-      fileName: file.uploadPath,
-      absolutePath: file.absolutePath,
-      byteLength: file.byteLength
-    }))
-  ];
+/** A build upload's body, and its idempotency key once it is known. */
+interface BuildUpload {
+  body: MultipartBody;
+  /**
+   * The key, for the `Idempotency-Key` header: a given key from the start, a derived one once a
+   * first attempt has streamed (and hashed) every file, so a retry is answered before its body.
+   */
+  knownKey: () => string | null;
+}
+
+/**
+ * Every file under its upload path, then the `meta` part (RFC 7578 keeps the order). A derived
+ * key comes from the SHA-256 of each file as it streams, so `meta` goes last: the files are read
+ * once, and the first byte leaves without a hashing pass over the whole build before it.
+ */
+function buildUpload(input: {
+  project: string;
+  details: BuildDetails;
+  files: readonly UploadFile[];
+  idempotencyKey: string | null;
+}): BuildUpload {
+  const { project, details, files } = input;
+  let key = input.idempotencyKey;
+  const metaOf = (idempotencyKey: string) => JSON.stringify({ ...details, idempotencyKey });
+  const meta: MultipartPart = {
+    kind: 'late-field',
+    name: 'meta',
+    contentType: 'application/json; charset=utf-8',
+    // Derived keys all have one length (see idempotency-key.ts), so any stands in for the length.
+    byteLength: Buffer.byteLength(metaOf(key ?? DERIVED_KEY_SHAPE), 'utf8'),
+    value: (sentFiles) => {
+      key ??= deriveIdempotencyKey({
+        project,
+        ...details,
+        files: sentFiles.map((file) => ({ uploadPath: file.fileName, sha256: file.sha256 }))
+      });
+      return metaOf(key);
+    }
+  };
+  const fileParts = files.map((file): MultipartPart => ({
+    kind: 'file',
+    name: 'file',
+    fileName: file.uploadPath,
+    absolutePath: file.absolutePath,
+    byteLength: file.byteLength
+  }));
+  return { body: createMultipartBody([...fileParts, meta]), knownKey: () => key };
 }
 
 /** What fetching (or, failing that, rendering) the report needs. */
