@@ -62,6 +62,12 @@ export function findingColumnsOf(finding: Finding): FindingColumns {
   };
 }
 
+/** The values of {@link findingColumnsOf} in {@link FINDING_COLUMN_NAMES} order, for multi-row INSERTs. */
+export function findingValuesOf(finding: Finding): FindingColumns[keyof FindingColumns][] {
+  const columns = findingColumnsOf(finding);
+  return FINDING_COLUMN_NAMES.map((name) => columns[name]);
+}
+
 function storable<T extends string | null>(text: T): T {
   return (text === null ? null : text.replaceAll('\u0000', '\ufffd')) as T;
 }

@@ -4,16 +4,18 @@
  * not at all.
  *
  * Design notes: assets, side files and findings go in as plain multi-row INSERTs (a few
- * statements per build) rather than one `Model.create` per asset and a `bulkCreate` per asset's
- * findings. Building a model instance per row cost as much as the SQL itself: with the 50 assets
- * and 5,650 findings of bench/ingest.bench.ts, findings took about 100 ms instead of 200 ms and
- * assets a few ms instead of 50 to 150. The rows are complete, so no model default is missed,
- * and asset ids are read back by path (paths are unique within a build).
+ * statements per build, see insert-rows.ts) rather than one `Model.create` per asset and a
+ * `bulkCreate` per asset's findings. Building a model instance per row cost as much as the SQL
+ * itself: with the 50 assets and 5,650 findings of bench/ingest.bench.ts, findings took about
+ * 100 ms instead of 200 ms and assets a few ms instead of 50 to 150; value arrays instead of row
+ * objects then took the whole write from about 190 ms to 130 ms. The rows are complete, so no model default is
+ * missed, and asset ids are read back by path (paths are unique within a build).
  */
 import type { InferCreationAttributes } from 'sequelize';
-import { findingColumnsOf } from '../builds/finding-columns';
+import { FINDING_COLUMN_NAMES, findingValuesOf } from '../builds/finding-columns';
 import { reportPathOf } from '../builds/build-summary';
 import { getDatabase } from '../db/instance';
+import { insertRows } from '../db/insert-rows';
 import { Asset, Build, FindingRecord, type Project } from '../db/models';
 import { assetSideFiles } from './asset-side-file';
 import { runBuildStoredHooks } from './build-stored-hooks';
@@ -37,8 +39,32 @@ export type BuildRow = Pick<
   | 'createdAt'
 >;
 
-/** Rows per INSERT statement: keeps each statement's SQL text to a few hundred kilobytes. */
-const ROWS_PER_INSERT = 1000;
+/** The columns of an asset row written with a build, in the order {@link writeBuild} gives them. */
+const ASSET_COLUMNS = [
+  'buildId',
+  'path',
+  'contentHash',
+  'byteLength',
+  'policyVersion',
+  'unreadable',
+  'statsJson',
+  'errorCount',
+  'warningCount',
+  'infoCount',
+  'worstRule'
+] as const satisfies readonly (keyof InferCreationAttributes<Asset>)[];
+
+const SIDE_FILE_COLUMNS = ['assetId', 'path', 'contentHash'] as const;
+
+/** A finding's own columns, then those of its place in the build. */
+const FINDING_ROW_COLUMNS = [
+  ...FINDING_COLUMN_NAMES,
+  'buildId',
+  'assetId',
+  'status',
+  'waived',
+  'waiverId'
+] as const satisfies readonly (keyof InferCreationAttributes<FindingRecord>)[];
 
 /**
  * Writes the build and everything in its plan, and runs the build-stored hooks, in one transaction.
@@ -53,7 +79,6 @@ export async function writeBuild(
   origin: string
 ): Promise<Build> {
   const { sequelize } = getDatabase();
-  const queryInterface = sequelize.getQueryInterface();
   const lintedByPath = new Map(checked.map((asset) => [asset.file.path, asset]));
   // Queued so concurrent uploads never wait for SQLite's lock inside threadpool threads.
   return queueSqliteWrite(sequelize, () =>
@@ -74,47 +99,44 @@ export async function writeBuild(
         },
         { transaction }
       );
-      const assetRows: Omit<InferCreationAttributes<Asset>, 'id'>[] = plan.assets.map((planned) => ({
-        buildId: build.id,
-        path: planned.report.path,
-        contentHash: lintedByPath.get(planned.report.path)!.file.sha256,
-        byteLength: planned.report.byteLength,
-        policyVersion: row.policyVersion,
-        unreadable: planned.report.unreadable,
-        statsJson: JSON.stringify(planned.report.stats),
-        errorCount: planned.counts.error,
-        warningCount: planned.counts.warning,
-        infoCount: planned.counts.info,
-        worstRule: planned.worstRule
-      }));
-      for (const rows of chunks(assetRows))
-        await queryInterface.bulkInsert(Asset.getTableName(), rows, { transaction });
+      const assetRows = plan.assets.map((planned) => [
+        build.id,
+        planned.report.path,
+        lintedByPath.get(planned.report.path)!.file.sha256,
+        planned.report.byteLength,
+        row.policyVersion,
+        planned.report.unreadable,
+        JSON.stringify(planned.report.stats),
+        planned.counts.error,
+        planned.counts.warning,
+        planned.counts.info,
+        planned.worstRule
+      ]);
+      await insertRows(sequelize, Asset.getTableName(), ASSET_COLUMNS, assetRows, transaction);
       const stored = await Asset.findAll({ where: { buildId: build.id }, attributes: ['id', 'path'], transaction });
       const assetIdByPath = new Map(stored.map((asset) => [asset.path, asset.id]));
 
       const sideFileRows = plan.assets.flatMap((planned) =>
-        Object.entries(lintedByPath.get(planned.report.path)!.sideFiles).map(([sidePath, contentHash]) => ({
-          assetId: assetIdByPath.get(planned.report.path)!,
-          path: sidePath,
+        Object.entries(lintedByPath.get(planned.report.path)!.sideFiles).map(([sidePath, contentHash]) => [
+          assetIdByPath.get(planned.report.path)!,
+          sidePath,
           contentHash
-        }))
+        ])
       );
-      const sideFileTable = assetSideFiles().getTableName();
-      for (const rows of chunks(sideFileRows)) await queryInterface.bulkInsert(sideFileTable, rows, { transaction });
+      await insertRows(sequelize, assetSideFiles().getTableName(), SIDE_FILE_COLUMNS, sideFileRows, transaction);
 
-      const findingRows: Omit<InferCreationAttributes<FindingRecord>, 'id'>[] = plan.assets.flatMap((planned) =>
-        planned.findings.map(({ finding, status, waiverId }) => ({
-          ...findingColumnsOf(finding),
-          buildId: build.id,
-          assetId: assetIdByPath.get(planned.report.path)!,
+      const findingRows = plan.assets.flatMap((planned) => {
+        const assetId = assetIdByPath.get(planned.report.path)!;
+        return planned.findings.map(({ finding, status, waiverId }) => [
+          ...findingValuesOf(finding),
+          build.id,
+          assetId,
           status,
-          waived: waiverId !== null,
+          waiverId !== null,
           waiverId
-        }))
-      );
-      for (const rows of chunks(findingRows)) {
-        await queryInterface.bulkInsert(FindingRecord.getTableName(), rows, { transaction });
-      }
+        ]);
+      });
+      await insertRows(sequelize, FindingRecord.getTableName(), FINDING_ROW_COLUMNS, findingRows, transaction);
 
       await runBuildStoredHooks({
         project,
@@ -126,13 +148,4 @@ export async function writeBuild(
       return build;
     })
   );
-}
-
-/** `rows` in slices of {@link ROWS_PER_INSERT}. */
-function chunks<T>(rows: readonly T[]): T[][] {
-  const slices: T[][] = [];
-  for (let start = 0; start < rows.length; start += ROWS_PER_INSERT) {
-    slices.push(rows.slice(start, start + ROWS_PER_INSERT));
-  }
-  return slices;
 }
