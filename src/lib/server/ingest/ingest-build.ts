@@ -10,12 +10,11 @@ import path from 'node:path';
 import { UniqueConstraintError } from 'sequelize';
 import { policyVersionOf } from '../../lint/policy';
 import { ENGINE_VERSION } from '../../lint/version';
-import { findBaselineBuild } from '../builds/find-baseline-build';
 import { findProjectPolicy } from '../builds/find-project-policy';
-import { findStandingFindings } from '../builds/find-standing-findings';
 import { getConfig } from '../config';
 import { Build, Waiver, type Project } from '../db/models';
 import { ApiError } from './api-error';
+import { prefetchBaseline } from './baseline-prefetch';
 import { storeBlob } from './blob-store';
 import { parseBuildMeta } from './build-meta';
 import { discardBody } from './discard-body';
@@ -60,6 +59,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
   const { dataDir } = getConfig();
   const policy = await findProjectPolicy(project.id);
   const policyVersion = policyVersionOf(policy);
+  const baselines = prefetchBaseline(project);
   return withUploadFolder(dataDir, async (folder) => {
     const filesFolder = path.join(folder, 'files');
     await fs.promises.mkdir(filesFolder);
@@ -84,8 +84,7 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       const checked = linted.filter((asset) => !asset.report.skipped);
 
       const builtAt = meta.builtAt ?? new Date();
-      const baseline = await findBaselineBuild(project, builtAt);
-      const baselineFindings = baseline ? await findStandingFindings({ buildId: baseline.id }) : null;
+      const { build: baseline, findings: baselineFindings } = await baselines.baselineAt(builtAt);
       const waivers = await Waiver.findAll({ where: { projectId: project.id, status: 'approved' } });
       const plan = planBuild(
         checked.map((asset) => asset.report),
