@@ -6,12 +6,15 @@
  * LINEAR and CUBICSPLINE, with defects), builds the CLI and the app when needed, and then times,
  * as wall clock of the whole CLI process:
  * - `node cli/dist/orientry.js check <folder>`: the local lint;
- * - `node cli/dist/orientry.js submit <folder>`: hash, upload, and the server's receive, lint,
- *   baseline comparison and write, against one warm server (its own data folder and database);
- *   every round has new asset contents, so every submission is a first one with nothing to reuse;
- * - the same submission again with the same idempotency key, answered from the header.
+ * - `node cli/dist/orientry.js submit <folder>`: upload (each file hashed as it streams), and the
+ *   server's receive, lint, baseline comparison and write, against one warm server (its own data
+ *   folder and database); every round has new asset contents, so every submission is a first one
+ *   with nothing to reuse;
+ * - the same submission again: the same derived idempotency key (in `meta`, after the files),
+ *   answered with the stored build, nothing stored twice.
  * Target (issue text): submit ≤ 1.5 × check. `BENCH_RUNS=2 npm run bench -- ingest` times fewer
- * rounds (default 5), for a quick look while working on ingestion.
+ * rounds (default 5), for a quick look while working on ingestion; `BENCH_PROFILE=<folder>` writes
+ * V8 CPU profiles of the server (its lint threads too) and of every CLI run there.
  */
 import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
@@ -19,6 +22,7 @@ import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { writeIngestAssets, type IngestAssets } from './support/ingest-assets';
+import { cpuProfileArgs } from './support/cpu-profile';
 import { exitedChildrenCpuMs, processCpuMs } from './support/cpu-time';
 import { startIngestServer, type IngestServer } from './support/ingest-server';
 import { copyBuild } from './support/orientry-server';
@@ -54,7 +58,7 @@ async function main(): Promise<void> {
   const submitMs: number[] = [];
   const serverMs: number[] = [];
   const repeatMs: number[] = [];
-  const hashMs: number[] = [];
+  const startMs: number[] = [];
   const uploadMs: number[] = [];
   const afterUploadMs: number[] = [];
   const checkCpuMs: number[] = [];
@@ -93,7 +97,7 @@ async function main(): Promise<void> {
       repeatMs.push(repeat.ms);
       serverMs.push((await server.latestBuildDurationMs()) ?? Number.NaN);
       const { sending = Number.NaN, uploaded = Number.NaN } = submit.marks;
-      hashMs.push(sending);
+      startMs.push(sending);
       uploadMs.push(uploaded - sending);
       afterUploadMs.push(submit.ms - uploaded);
     }
@@ -117,11 +121,11 @@ async function main(): Promise<void> {
       measure: '`orientry submit` (first upload of these files)',
       value: `${formatSeconds(submit)} (${rate(megabytes, submit)})`
     },
-    { measure: '  CLI start, collect and hash files', value: formatSeconds(median(hashMs)) },
+    { measure: '  CLI start and collect files', value: formatSeconds(median(startMs)) },
     { measure: '  upload (first to last byte sent)', value: formatSeconds(median(uploadMs)) },
     { measure: '  after the last byte (lint, compare, store, answer)', value: formatSeconds(median(afterUploadMs)) },
     { measure: "  server's own time before the write (durationMs)", value: formatSeconds(median(serverMs)) },
-    { measure: '`orientry submit` again, same key (Idempotency-Key)', value: formatSeconds(median(repeatMs)) },
+    { measure: '`orientry submit` again (same key: the stored build)', value: formatSeconds(median(repeatMs)) },
     {
       measure: 'CPU time: check / submit (CLI + server)',
       value:
@@ -177,7 +181,7 @@ async function timeCli(
 ): Promise<{ ms: number; cpuMs: number; stdout: string; stderr: string; marks: Partial<Record<Mark, number>> }> {
   const cpuBefore = exitedChildrenCpuMs();
   const startedAt = process.hrtime.bigint();
-  const child = spawn(process.execPath, [CLI, ...args], {
+  const child = spawn(process.execPath, [...cpuProfileArgs('cli'), CLI, ...args], {
     cwd: ROOT,
     env: { ...process.env, NO_COLOR: '1', ...env },
     stdio: ['ignore', 'pipe', 'pipe']

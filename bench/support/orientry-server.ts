@@ -7,6 +7,7 @@ import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { cpuProfileArgs } from './cpu-profile';
 import { freePort, stopChild, waitForHealth } from './server-process';
 
 /** A running server. */
@@ -42,7 +43,7 @@ export async function startOrientryServer(
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
   const output: string[] = [];
-  const child = spawn(process.execPath, [buildDir], {
+  const child = spawn(process.execPath, [...cpuProfileArgs('server'), buildDir], {
     cwd: root,
     env: {
       ...process.env,
