@@ -3,8 +3,8 @@
  * database, so it can run on the lint thread (lint-thread.ts) as well as on the request's own.
  * Everything it takes and gives survives structured cloning (plain objects, a Map).
  */
-import fs from 'node:fs';
 import { lintAsset } from '../../lint/lint-asset';
+import { readReusableFileBytes } from '../../node/reusable-file-bytes';
 import type { AssetReport } from '../../lint/lint-report';
 import type { Policy } from '../../lint/policy';
 import { createSideFileReader, type SideFileDigests } from './side-file-reader';
@@ -31,7 +31,15 @@ export interface DiskLintResult {
 /** Reads and lints the asset of `job`. Unreadable files become findings; only bugs throw. */
 export async function lintFileOnDisk(job: DiskLintJob): Promise<DiskLintResult> {
   const reader = createSideFileReader(job.filesFolder, job.assetPath, (uploadPath) => job.digests.get(uploadPath));
-  const bytes = await fs.promises.readFile(job.diskPath);
-  const report = await lintAsset({ path: job.assetPath, bytes, readSideFile: reader.readSideFile }, job.policy);
-  return { report, sideFiles: { ...reader.requested } };
+  const file = await readReusableFileBytes(job.diskPath);
+  try {
+    const report = await lintAsset(
+      { path: job.assetPath, bytes: file.bytes, readSideFile: reader.readSideFile },
+      job.policy
+    );
+    return { report, sideFiles: { ...reader.requested } };
+  } finally {
+    // The report holds no view of the bytes (reports are plain data), so the buffer is free again.
+    file.release();
+  }
 }
