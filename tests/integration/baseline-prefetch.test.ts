@@ -4,9 +4,9 @@
  * build once the upload is complete (see src/lib/server/ingest/baseline-prefetch.ts).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { defaultPolicy, policyVersionOf } from '$lib/lint/policy';
 import { Build, FindingRecord, Project } from '$lib/server/db/models';
 import { prefetchBaseline } from '$lib/server/ingest/baseline-prefetch';
+import { createStoredBuild } from './helpers/stored-build';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
@@ -15,21 +15,7 @@ const DAY_MS = 24 * 60 * 60 * 1000;
 
 /** A base-branch build with one standing finding whose fingerprint names the build. */
 async function addBaseBuild(label: string, createdAt: Date): Promise<Build> {
-  const build = await Build.create({
-    projectId: project.id,
-    branch: 'main',
-    commitSha: null,
-    label,
-    ciJobUrl: null,
-    idempotencyKey: null,
-    verdict: 'pass',
-    verdictReason: null,
-    baselineBuildId: null,
-    policyVersion: policyVersionOf(defaultPolicy()),
-    engineVersion: '1.0.0',
-    durationMs: 1,
-    createdAt
-  });
+  const build = await createStoredBuild(project.id, { label, createdAt });
   await FindingRecord.create({
     buildId: build.id,
     assetId: null,

@@ -10,10 +10,11 @@ import { defaultPolicy, policyVersionOf } from '$lib/lint/policy';
 import { ENGINE_VERSION } from '$lib/lint/version';
 import type { AssetReport } from '$lib/lint/lint-report';
 import { findingColumnsOf } from '$lib/server/builds/finding-columns';
-import { Asset, Build, FindingRecord, Project } from '$lib/server/db/models';
+import { Asset, FindingRecord, Project } from '$lib/server/db/models';
 import { assetSideFiles } from '$lib/server/ingest/asset-side-file';
 import { findReusableLint } from '$lib/server/ingest/find-reusable-lint';
 import { diverGlb, diverGltf } from './api-fixtures';
+import { createStoredBuild } from './helpers/stored-build';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
@@ -35,20 +36,7 @@ async function store(
   sideFiles: Record<string, string | null>,
   engineVersion = ENGINE_VERSION
 ): Promise<number> {
-  const build = await Build.create({
-    projectId,
-    branch: 'main',
-    commitSha: null,
-    label: null,
-    ciJobUrl: null,
-    idempotencyKey: null,
-    verdict: 'pass',
-    verdictReason: null,
-    baselineBuildId: null,
-    policyVersion,
-    engineVersion,
-    durationMs: null
-  });
+  const build = await createStoredBuild(projectId, { policyVersion, engineVersion });
   const asset = await Asset.create({
     buildId: build.id,
     path: report.path,

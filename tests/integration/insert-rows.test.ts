@@ -5,9 +5,9 @@
  * row fails before anything is written.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { defaultPolicy, policyVersionOf } from '$lib/lint/policy';
 import { insertRows } from '$lib/server/db/insert-rows';
-import { Asset, Build, FindingRecord, Project } from '$lib/server/db/models';
+import { Asset, FindingRecord, Project } from '$lib/server/db/models';
+import { createStoredBuild } from './helpers/stored-build';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
@@ -31,20 +31,7 @@ function row(index: number, text = `it's a \\ "quoted" ‘turn’ of 90° 🌊 #
 beforeAll(async () => {
   temp = await openTempDatabase();
   const project = await Project.create({ slug: 'lamp-room', name: 'Lamp Room', baseBranch: 'main' });
-  const build = await Build.create({
-    projectId: project.id,
-    branch: 'main',
-    commitSha: null,
-    label: null,
-    ciJobUrl: null,
-    idempotencyKey: null,
-    verdict: 'pass',
-    verdictReason: null,
-    baselineBuildId: null,
-    policyVersion: policyVersionOf(defaultPolicy()),
-    engineVersion: '1.0.0',
-    durationMs: 1
-  });
+  const build = await createStoredBuild(project.id);
   buildId = build.id;
   const asset = await Asset.create({
     buildId,

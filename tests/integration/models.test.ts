@@ -14,6 +14,7 @@ import {
   WaiverEvent
 } from '$lib/server/db/models';
 import * as apiTokens from '$lib/server/tokens/api-tokens';
+import { createStoredBuild } from './helpers/stored-build';
 import { openTempDatabase, type TempDatabase } from './temp-database';
 
 let temp: TempDatabase;
@@ -72,20 +73,7 @@ async function expectRefusedByDatabase(statement: Promise<unknown>, pattern: Reg
 }
 
 async function makeBuild(project: Project, branch = 'main'): Promise<Build> {
-  return Build.create({
-    projectId: project.id,
-    branch,
-    commitSha: null,
-    label: null,
-    ciJobUrl: null,
-    idempotencyKey: null,
-    verdict: 'pass',
-    verdictReason: null,
-    baselineBuildId: null,
-    policyVersion: '0123456789abcdef',
-    engineVersion: '1.0.0',
-    durationMs: null
-  });
+  return createStoredBuild(project.id, { branch, policyVersion: '0123456789abcdef', engineVersion: '1.0.0' });
 }
 
 describe('users', () => {
