@@ -1,9 +1,8 @@
 /**
  * Process helpers the benchmarks share when they run the built server as a child process:
- * a free port, waiting for /api/health, and a clean stop.
+ * waiting for /api/health here, a free port and a clean stop from the integration tests' helpers.
  */
 import type { ChildProcess } from 'node:child_process';
-import net from 'node:net';
 
 /** Resolves once GET `${url}/api/health` answers 200; rejects with the server's output if it exits or times out. */
 export async function waitForHealth(
@@ -25,22 +24,5 @@ export async function waitForHealth(
   throw new Error(`The bench server did not answer within ${timeoutMs / 1000} s:\n${output.join('')}`);
 }
 
-/** Sends SIGTERM and waits for the exit (nothing to do when it already ended). */
-export async function stopChild(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  child.kill('SIGTERM');
-  await exited;
-}
-
-/** A TCP port nobody listens on right now. */
-export async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
-}
+// The integration tests' own process helpers: one free-port probe and one stop for both.
+export { freePort, stopChild } from '../../tests/integration/helpers/server-process';

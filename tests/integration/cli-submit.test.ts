@@ -20,6 +20,7 @@ import {
 } from '../../cli/testing/rotation-assets';
 import { buildCli, runCliAsync, type CliRun } from '../../cli/testing/run-cli';
 import { seedProject, startApiTestServer, type ApiTestServer } from './api-test-server';
+import { freePort } from './helpers/server-process';
 
 let server: ApiTestServer;
 let secret: string;
@@ -58,18 +59,6 @@ function reportedBuildId(run: CliRun): number {
   const match = new RegExp(`report: ${server.url}/projects/tidewatch/builds/(\\d+)`).exec(run.stdout);
   expect(match, `no report URL in:\n${run.stdout}\n${run.stderr}`).not.toBeNull();
   return Number(match![1]);
-}
-
-/** A TCP port nobody listens on (bound, then released). */
-async function unusedPort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
 }
 
 describe('orientry submit', () => {
@@ -366,7 +355,7 @@ describe('orientry submit', () => {
   });
 
   it('exits 3 after its retries when nothing listens at the server address', async () => {
-    const port = await unusedPort();
+    const port = await freePort();
     const run = await submit(
       ['clean', '--commit', 'aaaa1111', '--branch', 'main', '--retries', '1', '--retry-delay', '0.01'],
       {},

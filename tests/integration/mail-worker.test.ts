@@ -1,4 +1,3 @@
-import net from 'node:net';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { MailMessage } from '$lib/server/db/models';
 import { createMailTransport } from '$lib/server/mail/mail-transport';
@@ -7,6 +6,7 @@ import * as outbox from '$lib/server/mail/outbox';
 import { claimNext } from '$lib/server/mail/outbox-lease';
 import { startSmtpSink, type SmtpSink } from './mail-smtp-sink';
 import { openDatabaseUnderTest, type DatabaseUnderTest } from './helpers/database-under-test';
+import { freePort } from './helpers/server-process';
 
 let temp: DatabaseUnderTest;
 const sinks: SmtpSink[] = [];
@@ -66,17 +66,6 @@ async function until<T>(read: () => Promise<T>, isDone: (value: T) => boolean, t
     if (Date.now() > deadline) throw new Error(`Timed out; last value: ${JSON.stringify(value)}`);
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
-}
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
-  });
 }
 
 const message = (key: string) => MailMessage.findOne({ where: { dedupeKey: key } }).then((row) => row!);
