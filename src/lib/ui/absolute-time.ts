@@ -1,3 +1,5 @@
+import { cachedDateFormat } from './cached-date-format';
+
 /**
  * A moment as an unambiguous date and time with its zone: `Wed 12 Mar 2025, 14:05 UTC`.
  * Goes in `title` attributes and detail panes next to {@link relativeTime}-style text, so a lead can match a build to
@@ -6,7 +8,7 @@
 export function formatAbsoluteTime(moment: Date | string, options: AbsoluteTimeOptions = {}): string {
   const date = typeof moment === 'string' ? new Date(moment) : moment;
   if (Number.isNaN(date.getTime())) return '—';
-  const parts = new Intl.DateTimeFormat('en-GB', {
+  const parts = cachedDateFormat('en-GB', {
     weekday: 'short',
     day: 'numeric',
     month: 'short',

@@ -1,3 +1,5 @@
+import { cachedDateFormat } from './cached-date-format';
+
 /**
  * How long ago a moment was, in a few calm words: `just now`, `4 min ago`, `3 h ago`, `yesterday`, `5 days ago`,
  * then a date (`12 Mar`, or `12 Mar 2024` in another year). Used beside build times; always pair it with the absolute
@@ -16,7 +18,7 @@ export function relativeTime(moment: Date | string, now: Date, options: Relative
   if (elapsedDays === 1) return 'yesterday';
   if (elapsedDays < 7) return `${elapsedDays} days ago`;
   const sameYear = yearIn(date, options.timeZone) === yearIn(now, options.timeZone);
-  return new Intl.DateTimeFormat('en-GB', {
+  return cachedDateFormat('en-GB', {
     day: 'numeric',
     month: 'short',
     year: sameYear ? undefined : 'numeric',
@@ -43,5 +45,5 @@ function spanText(spanMs: number): string {
 }
 
 function yearIn(date: Date, timeZone: string | undefined): string {
-  return new Intl.DateTimeFormat('en-GB', { year: 'numeric', timeZone }).format(date);
+  return cachedDateFormat('en-GB', { year: 'numeric', timeZone }).format(date);
 }
