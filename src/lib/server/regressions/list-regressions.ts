@@ -21,6 +21,8 @@ export const REGRESSION_MAX_BUILDS = 400;
 /** Most regressions listed by time to fix, and most assets ranked. */
 export const REGRESSION_LIST_LIMIT = 100;
 export const REGRESSING_ASSETS_LIMIT = 20;
+/** More distinct asset paths with findings than this are not listed in the assets query (every asset is read instead). */
+const MAX_PATHS_IN_QUERY = 50;
 
 /** A build reference for pages and JSON. */
 export interface BuildRefView {
@@ -128,9 +130,17 @@ async function loadBranchBuilds(builds: Build[], isInRange: (build: Build) => bo
     order: [['id', 'ASC']],
     raw: true
   })) as unknown as (BranchFinding & { buildId: number })[];
+  // Whether a build checked an asset only matters for assets that had findings (find-regressions.ts
+  // asks it to tell a fix from an asset left out), so when few assets had any, only theirs are read.
+  // Reading every asset (400 builds × 200 assets in bench/queries.bench.ts) took about 65 ms of the
+  // trends page; listing many paths made SQLite probe each pair and measured slower than that.
+  const findingPaths = [...new Set(findings.map((finding) => finding.assetPath))];
   const assets = (await Asset.findAll({
     attributes: ['buildId', 'path'],
-    where: { buildId: { [Op.in]: ids } },
+    where: {
+      buildId: { [Op.in]: ids },
+      ...(findingPaths.length <= MAX_PATHS_IN_QUERY ? { path: { [Op.in]: findingPaths } } : {})
+    },
     raw: true
   })) as unknown as { buildId: number; path: string }[];
 
