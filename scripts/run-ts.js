@@ -58,7 +58,11 @@ export function reportScriptError(error) {
   process.exitCode = 1;
 }
 
-const invokedDirectly = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+// Bundled into another script (the benchmarks bundle their imports), import.meta.url is that
+// script's, which is also process.argv[1]: the file name tells this module's own run apart.
+const ownPath = fileURLToPath(import.meta.url);
+const invokedDirectly =
+  path.basename(ownPath) === 'run-ts.js' && process.argv[1] && path.resolve(process.argv[1]) === ownPath;
 if (invokedDirectly) {
   const [entry, exportName] = process.argv.slice(2);
   if (!entry || !exportName) {
