@@ -61,15 +61,29 @@ export async function stopChild(child: ChildProcess, signal: NodeJS.Signals = 'S
   await exited;
 }
 
-/** A TCP port nobody listens on right now. */
+/**
+ * A TCP port nobody listens on right now, below Linux's ephemeral range (32768–60999 by default).
+ * A port the system hands out for `listen(0)` (a server's mail catcher, an SMTP sink) would be
+ * free again the moment this probe closes it, and another process could be given it before the
+ * server that was meant to have it starts: that race made a CI run fail with EADDRINUSE. Ports
+ * below the range are never handed out that way; parallel test files pick them at random.
+ */
 export async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
+  for (let attempt = 0; attempt < 50; attempt++) {
+    const port = FIRST_PICKED_PORT + Math.floor(Math.random() * (LAST_PICKED_PORT - FIRST_PICKED_PORT + 1));
+    if (await isFree(port)) return port;
+  }
+  throw new Error(`No free port between ${FIRST_PICKED_PORT} and ${LAST_PICKED_PORT} after 50 tries.`);
+}
+
+const FIRST_PICKED_PORT = 20_000;
+const LAST_PICKED_PORT = 32_000;
+
+function isFree(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
     const probe = net.createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as net.AddressInfo;
-      probe.close(() => resolve(port));
-    });
+    probe.once('error', () => resolve(false));
+    probe.listen(port, '127.0.0.1', () => probe.close(() => resolve(true)));
   });
 }
 
