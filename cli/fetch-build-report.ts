@@ -4,6 +4,7 @@
  * thrown, so `submit` can explain it and fall back to a report rendered on this machine.
  */
 import { version as packageVersion } from '../package.json';
+import { exchange, type HttpAnswer } from './http-exchange';
 import { withRetries, type RetryHooks, type RetryPolicy } from './retry-policy';
 import {
   apiUrl,
@@ -40,17 +41,18 @@ export async function fetchBuildReport(request: FetchReportRequest, hooks: Retry
   const url = apiUrl(request.serverUrl, path);
   return withRetries<FetchedReport>(
     async () => {
-      let response: Response;
+      let response: HttpAnswer;
       try {
-        response = await fetch(url, {
-          redirect: 'manual',
-          signal: AbortSignal.timeout(request.timeoutSeconds * 1000),
+        response = await exchange(url, {
+          method: 'GET',
+          timeoutMs: request.timeoutSeconds * 1000,
           headers: { authorization: `Bearer ${request.token}`, 'user-agent': `orientry-cli/${packageVersion}` }
         });
       } catch (error) {
         return outcomeOfNetworkError(error, request.timeoutSeconds);
       }
-      if (response.ok) return { kind: 'done', value: { kind: 'report', text: await response.text() } };
+      if (response.status >= 200 && response.status < 300)
+        return { kind: 'done', value: { kind: 'report', text: await response.text() } };
       const error = await readServerError(response);
       if (isRetryableStatus(error.status)) return retryOutcome(error, response.headers.get('retry-after'));
       return { kind: 'done', value: { kind: 'refused', error } };

@@ -3,7 +3,6 @@ import { mkdtemp, rm, truncate, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import type { ReadableStream as NodeReadableStream } from 'node:stream/web';
 import busboy from 'busboy';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CliError } from './cli-error';
@@ -18,7 +17,7 @@ interface ParsedPart {
 }
 
 /** Streams `body` through busboy, as the server's upload receiver does, and collects every part. */
-async function parseWithBusboy(stream: ReadableStream<Uint8Array>, contentType: string): Promise<ParsedPart[]> {
+async function parseWithBusboy(body: AsyncIterable<Uint8Array>, contentType: string): Promise<ParsedPart[]> {
   const parts: ParsedPart[] = [];
   const parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8' });
   const done = new Promise<void>((resolve, reject) => {
@@ -35,14 +34,14 @@ async function parseWithBusboy(stream: ReadableStream<Uint8Array>, contentType: 
     parser.on('close', resolve);
     parser.on('error', reject);
   });
-  Readable.fromWeb(stream as NodeReadableStream<Uint8Array>).pipe(parser);
+  Readable.from(body).pipe(parser);
   await done;
   return parts;
 }
 
-async function readAll(stream: ReadableStream<Uint8Array>): Promise<Buffer> {
-  const chunks: Buffer[] = [];
-  for await (const chunk of Readable.fromWeb(stream as NodeReadableStream<Uint8Array>)) chunks.push(chunk as Buffer);
+async function readAll(body: AsyncIterable<Uint8Array>): Promise<Buffer> {
+  const chunks: Uint8Array[] = [];
+  for await (const chunk of body) chunks.push(chunk);
   return Buffer.concat(chunks);
 }
 

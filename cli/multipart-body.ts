@@ -62,10 +62,11 @@ export interface MultipartBody {
   /** Exact length of every stream `open` returns, for Content-Length. */
   byteLength: number;
   /**
-   * A new stream of the whole body (each retry needs its own).
+   * The whole body, chunk by chunk, read afresh on every call (each retry needs its own).
+   * Stopping early closes the file being read.
    * @param onBytes called with the size of each chunk as the reader takes it, for progress.
    */
-  open(onBytes?: (byteLength: number) => void): ReadableStream<Uint8Array>;
+  open(onBytes?: (byteLength: number) => void): AsyncIterable<Uint8Array>;
 }
 
 /** Chunk size for file reads: large enough for few syscalls, small enough to stay light. */
@@ -88,23 +89,11 @@ export function createMultipartBody(parts: readonly MultipartPart[], boundary = 
   return {
     contentType: `multipart/form-data; boundary=${boundary}`,
     byteLength,
-    open(onBytes) {
-      const chunks = bodyChunks(parts, heads, tail);
-      return new ReadableStream<Uint8Array>({
-        async pull(controller) {
-          const next = await chunks.next();
-          if (next.done) {
-            controller.close();
-            return;
-          }
-          onBytes?.(next.value.byteLength);
-          controller.enqueue(next.value);
-        },
-        async cancel() {
-          // Closes the file being read, if any.
-          await chunks.return(undefined);
-        }
-      });
+    async *open(onBytes) {
+      for await (const chunk of bodyChunks(parts, heads, tail)) {
+        onBytes?.(chunk.byteLength);
+        yield chunk;
+      }
     }
   };
 }

@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { version as packageVersion } from '../package.json';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
+import { exchange, type HttpAnswer } from './http-exchange';
 import type { MultipartBody } from './multipart-body';
 import { withRetries, type RetryHooks, type RetryPolicy } from './retry-policy';
 import { apiUrl, outcomeOfFailure, outcomeOfNetworkError } from './server-answer';
@@ -75,7 +76,7 @@ export async function postBuild(request: PostBuildRequest, hooks: RetryHooks): P
   const url = apiUrl(request.serverUrl, `api/v1/projects/${encodeURIComponent(request.project)}/builds`);
   return withRetries(
     async () => {
-      let response: Response;
+      let response: HttpAnswer;
       try {
         response = await send(url, request);
       } catch (error) {
@@ -92,24 +93,20 @@ export async function postBuild(request: PostBuildRequest, hooks: RetryHooks): P
   );
 }
 
-/** One attempt: the whole body streamed, the answer's head awaited within the timeout. */
-async function send(url: URL, request: PostBuildRequest): Promise<Response> {
+/** One attempt: the whole body streamed and the answer read, within the timeout. */
+async function send(url: URL, request: PostBuildRequest): Promise<HttpAnswer> {
   const { body, progress } = request;
   const idempotencyKey = request.idempotencyKey();
   let sentBytes = 0;
   progress.start(body.byteLength);
-  const stream = body.open((byteLength) => {
-    sentBytes += byteLength;
-    progress.advance(byteLength);
-    if (sentBytes === body.byteLength) progress.sent();
-  });
-  const response = await fetch(url, {
+  return exchange(url, {
     method: 'POST',
-    body: stream,
-    // Node's fetch streams a ReadableStream body only in half-duplex mode.
-    duplex: 'half',
-    redirect: 'manual',
-    signal: AbortSignal.timeout(request.timeoutSeconds * 1000),
+    body: body.open((byteLength) => {
+      sentBytes += byteLength;
+      progress.advance(byteLength);
+      if (sentBytes === body.byteLength) progress.sent();
+    }),
+    timeoutMs: request.timeoutSeconds * 1000,
     headers: {
       authorization: `Bearer ${request.token}`,
       accept: 'application/json',
@@ -120,11 +117,10 @@ async function send(url: URL, request: PostBuildRequest): Promise<Response> {
       origin: url.origin,
       'user-agent': `orientry-cli/${packageVersion}`
     }
-  } as RequestInit);
-  return response;
+  });
 }
 
-async function readAnswer(response: Response): Promise<PostedBuild> {
+async function readAnswer(response: HttpAnswer): Promise<PostedBuild> {
   const text = await response.text();
   let json: unknown;
   try {
@@ -137,7 +133,7 @@ async function readAnswer(response: Response): Promise<PostedBuild> {
   return { build: parsed.data.build, isExisting: response.status === 200 };
 }
 
-function notABuild(response: Response, what: string, cause: unknown): CliError {
+function notABuild(response: HttpAnswer, what: string, cause: unknown): CliError {
   return new CliError(
     'server.answer-invalid',
     `the server answered HTTP ${response.status} with ${what} (${response.headers.get('content-type') ?? 'no content type'}); check that --server is the Orientry server's address`,

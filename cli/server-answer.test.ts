@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
+import { NetworkError } from './http-exchange';
 import { apiUrl, outcomeOfFailure, outcomeOfNetworkError, readServerError } from './server-answer';
 
 const apiError = (status: number, code: string, message: string, headers: Record<string, string> = {}) =>
@@ -107,7 +108,7 @@ describe('outcomeOfFailure', () => {
 
 describe('outcomeOfNetworkError', () => {
   it('retries a refused connection, naming the socket error', () => {
-    const error = new TypeError('fetch failed', {
+    const error = new NetworkError('connect ECONNREFUSED 127.0.0.1:9', {
       cause: Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:9'), { code: 'ECONNREFUSED' })
     });
     expect(outcomeOfNetworkError(error, 600)).toEqual({
@@ -128,8 +129,7 @@ describe('outcomeOfNetworkError', () => {
 
   it('passes on an input error that broke the body instead of retrying it', () => {
     const changed = new CliError('input.changed', 'keeper.bin: the file changed', ExitCode.UsageError);
-    const error = new TypeError('fetch failed', { cause: changed });
-    expect(() => outcomeOfNetworkError(error, 600)).toThrow(changed);
+    expect(() => outcomeOfNetworkError(changed, 600)).toThrow(changed);
   });
 
   it('passes on anything that is not a network failure', () => {

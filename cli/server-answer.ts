@@ -6,6 +6,7 @@
  */
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
+import { NetworkError, type HttpAnswer } from './http-exchange';
 import { parseRetryAfter, type AttemptOutcome } from './retry-policy';
 
 /** What an API error answer says. */
@@ -29,7 +30,7 @@ export function apiUrl(serverUrl: string, path: string): URL {
 }
 
 /** The status, code and message of a non-2xx answer, whatever its body holds. */
-export async function readServerError(response: Response): Promise<ServerError> {
+export async function readServerError(response: HttpAnswer): Promise<ServerError> {
   const text = (await response.text()).slice(0, MAX_ERROR_BODY_CHARS);
   let code = `http.${response.status}`;
   let message = text.trim().split('\n')[0]?.slice(0, 300) || response.statusText || 'no explanation given';
@@ -50,7 +51,7 @@ export async function readServerError(response: Response): Promise<ServerError> 
  * refusal (token, rights, project, size limits, redirects).
  * @param action what was asked, for the message (`the upload`, `the report`).
  */
-export async function outcomeOfFailure(response: Response, action: string): Promise<AttemptOutcome<never>> {
+export async function outcomeOfFailure(response: HttpAnswer, action: string): Promise<AttemptOutcome<never>> {
   const error = await readServerError(response);
   if (isRetryableStatus(error.status)) return retryOutcome(error, response.headers.get('retry-after'));
   throw refusalOf(error, action, response.headers.get('location'));
@@ -105,14 +106,13 @@ export function outcomeOfNetworkError(error: unknown, timeoutSeconds: number): A
   if (name === 'TimeoutError') {
     return { kind: 'retry', reason: `no answer within ${timeoutSeconds} s`, retryAfterMs: null };
   }
-  // fetch rejects with a TypeError("fetch failed") whose cause is the socket's error.
-  if (error instanceof TypeError) {
+  if (error instanceof NetworkError) {
     return { kind: 'retry', reason: describeNetworkError(error), retryAfterMs: null };
   }
   throw error;
 }
 
-function describeNetworkError(error: TypeError): string {
+function describeNetworkError(error: NetworkError): string {
   const cause = error.cause as { code?: unknown; message?: unknown; errors?: unknown } | undefined;
   if (!cause) return error.message;
   // Happy-eyeballs connects fail with an AggregateError holding one error per address.
