@@ -66,6 +66,29 @@ describe('collectUploadFiles', () => {
     ]);
   });
 
+  it('reads assets side by side yet warns in the order they were given', async () => {
+    await mkdir(join(root, 'crowd'), { recursive: true });
+    // The first asset takes longest to read (8 MB of JSON), so finishing order differs from the given order.
+    const slow = {
+      asset: { version: '2.0' },
+      extras: { padding: 'x'.repeat(8 * 2 ** 20) },
+      buffers: [{ byteLength: 4, uri: 'gone-00.bin' }]
+    };
+    await writeFile(join(root, 'crowd/slow.gltf'), JSON.stringify(slow));
+    const names = ['crowd/slow.gltf'];
+    for (let index = 1; index <= 24; index++) {
+      const name = `crowd/extra-${String(index).padStart(2, '0')}.gltf`;
+      await gltfNaming(join(root, name), [`gone-${String(index).padStart(2, '0')}.bin`]);
+      names.push(name);
+    }
+    const warnings: string[] = [];
+    const files = await collectUploadFiles(names.map(input), root, (line) => warnings.push(line));
+    expect(warnings.map((line) => line.match(/gone-\d+/)?.[0])).toEqual(
+      names.map((_, index) => `gone-${String(index).padStart(2, '0')}`)
+    );
+    expect(files.map((file) => file.uploadPath)).toEqual([...names].sort());
+  });
+
   it('keeps a file both matched and named by another asset as an asset', async () => {
     const files = await collectUploadFiles([input('rigs/a.gltf'), input('rigs/shared.bin')], root, () => undefined);
     expect(files.find((file) => file.uploadPath === 'rigs/shared.bin')?.isAsset).toBe(true);

@@ -6,12 +6,16 @@
  */
 import { open, realpath, stat } from 'node:fs/promises';
 import { dirname, relative, resolve, sep } from 'node:path';
+import pLimit from 'p-limit';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 import type { InputFile } from './files';
 import { isInside } from './is-inside';
 import { isMissing } from './is-missing';
 import { listSideFileReferences } from './side-file-paths';
+
+/** Files opened at once while collecting: well below any open-file limit. */
+const CONCURRENT_READS = 16;
 
 /** One file to upload. */
 export interface UploadFile {
@@ -39,28 +43,45 @@ export async function collectUploadFiles(
     const assetUploadPath = toUploadPath(rootPath, asset.absolutePath, asset.displayPath);
     byUploadPath.set(assetUploadPath, { absolutePath: asset.absolutePath, isAsset: true });
   }
-  for (const [assetUploadPath, { absolutePath }] of [...byUploadPath]) {
-    for (const sideFile of await findSideFiles(absolutePath, assetUploadPath, warn)) {
+  // The files are read a few at a time: one after another, the waits on the disk added up to
+  // 45 ms for 50 assets, longer than the rest of submit's preparation.
+  const limit = pLimit(CONCURRENT_READS);
+  const assetEntries = [...byUploadPath];
+  const sideFileLists = await Promise.all(
+    assetEntries.map(([assetUploadPath, { absolutePath }]) => limit(() => findSideFiles(absolutePath, assetUploadPath)))
+  );
+  // In the assets' order, so warnings and the choice between a matched and a named file do not depend on timing.
+  for (const { sideFiles, warnings } of sideFileLists) {
+    warnings.forEach(warn);
+    for (const sideFile of sideFiles) {
       const uploadPath = toUploadPath(rootPath, sideFile, sideFile);
       // A file both matched and named by another asset stays an asset.
       if (!byUploadPath.has(uploadPath)) byUploadPath.set(uploadPath, { absolutePath: sideFile, isAsset: false });
     }
   }
-  const files: UploadFile[] = [];
   const uploadPaths = [...byUploadPath.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
-  for (const uploadPath of uploadPaths) {
-    const { absolutePath, isAsset } = byUploadPath.get(uploadPath)!;
-    files.push({ uploadPath, absolutePath, isAsset, ...(await measure(absolutePath, uploadPath)) });
-  }
-  return files;
+  return Promise.all(
+    uploadPaths.map((uploadPath) =>
+      limit(async (): Promise<UploadFile> => {
+        const { absolutePath, isAsset } = byUploadPath.get(uploadPath)!;
+        return { uploadPath, absolutePath, isAsset, ...(await measure(absolutePath, uploadPath)) };
+      })
+    )
+  );
 }
 
 /**
  * The absolute paths of the side files an asset names that exist inside its folder: the URI
  * is resolved against the folder, and its real path (symlinks followed) must stay inside the
- * folder's real path, as `check` requires before reading one.
+ * folder's real path, as `check` requires before reading one. Also the warnings for the side
+ * files it leaves out, for the caller to print in the assets' order.
  */
-async function findSideFiles(assetPath: string, assetUploadPath: string, warn: (line: string) => void) {
+async function findSideFiles(
+  assetPath: string,
+  assetUploadPath: string
+): Promise<{ sideFiles: string[]; warnings: string[] }> {
+  const warnings: string[] = [];
+  const warn = (line: string) => warnings.push(line);
   const folder = dirname(assetPath);
   const realFolder = await realpath(folder);
   const found: string[] = [];
@@ -90,7 +111,7 @@ async function findSideFiles(assetPath: string, assetUploadPath: string, warn: (
     }
     found.push(candidate);
   }
-  return found;
+  return { sideFiles: found, warnings };
 }
 
 /** `absolutePath` relative to the root, with forward slashes, checked for what the server refuses. */
