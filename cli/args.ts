@@ -5,7 +5,8 @@
  */
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
-import { RULE_IDS, SEVERITIES, type RuleId, type Severity } from '$lib/lint';
+import { SEVERITIES, type Severity } from '$lib/lint/finding';
+import { RULE_IDS, type RuleId } from '$lib/lint/rule-ids';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 import {

@@ -6,7 +6,8 @@
 import { readFile, realpath, stat } from 'node:fs/promises';
 import { dirname, isAbsolute, relative, resolve, sep } from 'node:path';
 import { glob, isDynamicPattern } from 'tinyglobby';
-import { AssetReadError, type AssetSource } from '$lib/lint';
+import type { AssetSource } from '$lib/lint';
+import { AssetReadError } from '$lib/lint/asset-read-error';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
 import { isInside } from './is-inside';

@@ -4,7 +4,7 @@
  * says which step failed; anything else is a bug: "orientry: internal error: ...", and the stack
  * only under --debug.
  */
-import { PolicyError } from '$lib/lint';
+import { PolicyError } from '$lib/lint/policy';
 import { CliError } from './cli-error';
 import type { TextStream } from './command-context';
 import { ExitCode } from './exit-codes';

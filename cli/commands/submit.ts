@@ -6,7 +6,6 @@
  */
 import { resolve } from 'node:path';
 import { setTimeout as sleep } from 'node:timers/promises';
-import { buildLintReport, defaultPolicy } from '$lib/lint';
 import { readApiToken } from '../api-token';
 import type { SubmitOptions } from '../args';
 import { resolveBuildDetails, type BuildDetails } from '../build-details';
@@ -15,9 +14,7 @@ import type { CommandContext } from '../command-context';
 import { ExitCode } from '../exit-codes';
 import { fetchBuildReport, type ServerReportFormat } from '../fetch-build-report';
 import { expandInputs } from '../files';
-import { formatReport } from '../format-report';
 import { DERIVED_KEY_SHAPE, deriveIdempotencyKey } from '../idempotency-key';
-import { lintInputFile } from '../lint-input-file';
 import { createMultipartBody, type MultipartBody, type MultipartPart } from '../multipart-body';
 import { plural } from '../plural';
 import { postBuild } from '../post-build';
@@ -181,6 +178,12 @@ async function getReport(request: ReportRequest): Promise<string> {
     `the server did not give the ${format} report (HTTP ${status} ${code}: ${message}); ` +
       `it was rendered on this machine with the built-in policy, without the project's policy, baseline or waivers`
   );
+  // Imported here: the lint engine is only needed on this fallback path (see main.ts).
+  const [{ buildLintReport, defaultPolicy }, { formatReport }, { lintInputFile }] = await Promise.all([
+    import('$lib/lint'),
+    import('../format-report'),
+    import('../lint-input-file')
+  ]);
   const policy = defaultPolicy();
   const reports = [];
   // The server lints .glb and .gltf files; anything else that was named is a side file to it.
