@@ -29,7 +29,9 @@ const SQLITE_ONLY = [
   'tests/integration/health.test.ts',
   // The command-line linter and fixer: no database at all.
   'tests/integration/cli-check.test.ts',
-  'tests/integration/cli-fix.test.ts'
+  'tests/integration/cli-fix.test.ts',
+  // submit against a fake server that gives no report: no database at all.
+  'tests/integration/cli-submit-fallback-report.test.ts'
 ];
 
 export default defineConfig({
