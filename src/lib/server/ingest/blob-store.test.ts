@@ -33,6 +33,16 @@ describe('blob store', () => {
     expect(fs.readdirSync(path.join(dataDir, 'blobs', id.slice(0, 2)))).toEqual([id.slice(2)]);
   });
 
+  it('stores the same content sent under several paths once, when the moves run side by side', async () => {
+    // A build may carry one file under several names; ingestion moves its blobs concurrently.
+    const id = sha256('shared rig buffer');
+    const sources = Array.from({ length: 8 }, (_, index) => path.join(dataDir, `copy-${index}.bin`));
+    for (const source of sources) fs.writeFileSync(source, 'shared rig buffer');
+    await Promise.all(sources.map((source) => storeBlob(dataDir, id, source)));
+    expect(fs.readdirSync(path.join(dataDir, 'blobs', id.slice(0, 2)))).toEqual([id.slice(2)]);
+    expect(Buffer.from((await readBlob(dataDir, id))!).toString()).toBe('shared rig buffer');
+  });
+
   it('reads null for a blob never stored', async () => {
     expect(await readBlob(dataDir, sha256('nothing'))).toBeNull();
   });
