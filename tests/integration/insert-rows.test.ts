@@ -76,6 +76,19 @@ describe('insertRows', () => {
     expect(await FindingRecord.count({ where: { buildId } })).toBe(0);
   });
 
+  it('runs inside the transaction: a statement the database refuses undoes the statements before it', async () => {
+    const { sequelize } = temp.database;
+    // Statement 1 (rows 0–999) is fine; statement 2 holds a row without its rule (NOT NULL).
+    const rows = Array.from({ length: 1500 }, (_, index) => row(index));
+    rows[1200][ALL_COLUMNS.indexOf('rule')] = null;
+    await expect(
+      sequelize.transaction((transaction) =>
+        insertRows(sequelize, FindingRecord.getTableName(), ALL_COLUMNS, rows, transaction)
+      )
+    ).rejects.toThrow(/NOT NULL|null value/i);
+    expect(await FindingRecord.count({ where: { buildId } })).toBe(0);
+  });
+
   it('does nothing for no rows', async () => {
     const { sequelize } = temp.database;
     await sequelize.transaction((transaction) =>
