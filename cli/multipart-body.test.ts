@@ -128,6 +128,15 @@ describe('createMultipartBody', () => {
     expect(second.equals(first)).toBe(true);
   });
 
+  it('draws a new random boundary of at most 70 characters (RFC 2046) for each body', () => {
+    const first = createMultipartBody(buildParts()).contentType;
+    const second = createMultipartBody(buildParts()).contentType;
+    const boundaryOf = (contentType: string) => /boundary=(.+)$/.exec(contentType)![1];
+    expect(boundaryOf(first)).toMatch(/^orientry-[0-9a-f]{60}$/);
+    expect(boundaryOf(first).length).toBeLessThanOrEqual(70);
+    expect(boundaryOf(second)).not.toBe(boundaryOf(first));
+  });
+
   it('lays out the parts as RFC 7578 describes, with the boundary given', async () => {
     const meta: MultipartPart = { kind: 'field', name: 'meta', value: '{}' };
     const body = createMultipartBody([meta], 'b0undary');
