@@ -1,3 +1,4 @@
+import crypto from 'node:crypto';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterEach, describe, expect, it } from 'vitest';
@@ -52,6 +53,31 @@ describe('exchange', () => {
     expect(JSON.parse(await answer.text())).toEqual({ length: 64 * chunk.length });
     expect(received).toBe(chunk.repeat(64));
     expect(seenHeaders.origin).toBe(url.origin);
+  });
+
+  it('is done with a chunk before it asks for the chunk after the next one, so its memory may be reused', async () => {
+    const url = await serve((request, response) => {
+      const hash = crypto.createHash('sha256');
+      request.on('data', (chunk: Buffer) => hash.update(chunk));
+      request.on('end', () => response.end(hash.digest('hex')));
+    });
+    // Two buffers taking turns, each refilled as soon as the contract allows (as MultipartBody does).
+    const buffers = [Buffer.alloc(512 * 1024), Buffer.alloc(512 * 1024)];
+    const expected = crypto.createHash('sha256');
+    async function* takingTurns(): AsyncGenerator<Uint8Array> {
+      for (let index = 0; index < 48; index++) {
+        const buffer = buffers[index % 2].fill(index);
+        expected.update(buffer);
+        yield buffer;
+      }
+    }
+    const answer = await exchange(url, {
+      method: 'POST',
+      headers: { 'content-length': String(48 * 512 * 1024) },
+      body: takingTurns(),
+      timeoutMs: 10_000
+    });
+    expect(await answer.text()).toBe(expected.digest('hex'));
   });
 
   it('stops sending when the server answers before reading the body, and closes what it was reading', async () => {

@@ -22,7 +22,11 @@ export interface HttpAnswer {
 export interface HttpExchange {
   method: 'GET' | 'POST';
   headers: Record<string, string>;
-  /** Sent in order; an error it throws (an input file that changed) ends the exchange with that error. */
+  /**
+   * Sent in order; an error it throws (an input file that changed) ends the exchange with that
+   * error. A chunk is written out before the chunk after the next one is requested, so the
+   * producer may then reuse its memory.
+   */
   body?: AsyncIterable<Uint8Array>;
   /** Limit for the whole exchange, from the first byte sent to the last byte of the answer. */
   timeoutMs: number;
@@ -67,30 +71,28 @@ export function exchange(url: URL, request: HttpExchange): Promise<HttpAnswer> {
   });
 }
 
+/**
+ * Writes the body with at most two chunks in flight: before asking for the next chunk it waits
+ * until the one before the current chunk has been handed to the socket. That is backpressure,
+ * and it lets the producer refill that chunk's buffer (see MultipartBody.open).
+ */
 async function sendBody(
   outgoing: http.ClientRequest,
   body: AsyncIterable<Uint8Array> | undefined,
   isSettled: () => boolean
 ): Promise<void> {
+  let previousWrite: Promise<void> = Promise.resolve();
   if (body) {
     for await (const chunk of body) {
       if (isSettled()) return;
-      if (!outgoing.write(chunk)) await drainedOrClosed(outgoing);
+      // The callback also comes (with an error) when the request is destroyed; 'error' reports that.
+      const written = new Promise<void>((resolve) => outgoing.write(chunk, () => resolve()));
+      await previousWrite;
+      previousWrite = written;
     }
   }
+  await previousWrite;
   if (!isSettled()) outgoing.end();
-}
-
-function drainedOrClosed(outgoing: http.ClientRequest): Promise<void> {
-  return new Promise((resolve) => {
-    const done = () => {
-      outgoing.off('drain', done);
-      outgoing.off('close', done);
-      resolve();
-    };
-    outgoing.on('drain', done);
-    outgoing.on('close', done);
-  });
 }
 
 function answerOf(incoming: http.IncomingMessage, body: Buffer): HttpAnswer {
