@@ -6,12 +6,12 @@
  * LINEAR and CUBICSPLINE, with defects), builds the CLI and the app when needed, and then times,
  * as wall clock of the whole CLI process:
  * - `node cli/dist/orientry.js check <folder>`: the local lint;
- * - `node cli/dist/orientry.js submit <folder>`: upload (each file hashed as it streams), and the
- *   server's receive, lint, baseline comparison and write, against one warm server (its own data
+ * - `node cli/dist/orientry.js submit <folder>`: upload, and the server's receive (each file
+ *   hashed as it arrives), lint, baseline comparison and write, against one warm server (its own data
  *   folder and database); every round has new asset contents, so every submission is a first one
  *   with nothing to reuse;
- * - the same submission again: the same derived idempotency key (in `meta`, after the files),
- *   answered with the stored build, nothing stored twice.
+ * - the same submission again: the server derives the same idempotency key from the same files
+ *   and details, and answers with the stored build, nothing stored twice.
  * Target (issue text): submit ≤ 1.5 × check. `BENCH_RUNS=2 npm run bench -- ingest` times fewer
  * rounds (default 5), for a quick look while working on ingestion; `BENCH_PROFILE=<folder>` writes
  * V8 CPU profiles of the server (its lint threads too) and of every CLI run there.

@@ -6,7 +6,7 @@ import { Readable } from 'node:stream';
 import busboy from 'busboy';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CliError } from './cli-error';
-import { createMultipartBody, type MultipartPart, type SentFile } from './multipart-body';
+import { createMultipartBody, type MultipartPart } from './multipart-body';
 
 /** A part as busboy (the server's parser) hands it over. */
 interface ParsedPart {
@@ -148,40 +148,6 @@ describe('createMultipartBody', () => {
     const text = (await readAll(body.open())).toString('utf8');
     expect(text).toBe('--b0undary\r\nContent-Disposition: form-data; name="meta"\r\n\r\n{}\r\n--b0undary--\r\n');
     expect(body.contentType).toBe('multipart/form-data; boundary=b0undary');
-  });
-
-  it('hands a late field the SHA-256 of every file sent before it', async () => {
-    const path = join(folder, 'abc.txt');
-    await writeFile(path, 'abc');
-    const seen: SentFile[][] = [];
-    const late: MultipartPart = {
-      kind: 'late-field',
-      name: 'meta',
-      byteLength: 7,
-      value: (sentFiles) => {
-        seen.push([...sentFiles]);
-        return `{"n":${sentFiles.length}}`;
-      }
-    };
-    const file: MultipartPart = { kind: 'file', name: 'file', fileName: 'abc.txt', absolutePath: path, byteLength: 3 };
-    const body = createMultipartBody([file, late], 'b0undary');
-    const text = (await readAll(body.open())).toString('utf8');
-    expect(text).toContain('name="meta"\r\n\r\n{"n":1}\r\n--b0undary--');
-    expect(text.length).toBe(body.byteLength);
-    // FIPS 180-4 / NIST CSRC example: SHA-256("abc").
-    expect(seen).toEqual([
-      [{ fileName: 'abc.txt', sha256: 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad' }]
-    ]);
-    // Every stream (every retry) hashes what it sends afresh.
-    await readAll(body.open());
-    expect(seen).toHaveLength(2);
-    expect(seen[1]).toEqual(seen[0]);
-  });
-
-  it('fails the stream when a late field is not the length it declared', async () => {
-    const late: MultipartPart = { kind: 'late-field', name: 'meta', byteLength: 3, value: () => 'four' };
-    const failure = await readAll(createMultipartBody([late]).open()).catch((error: unknown) => error);
-    expect((failure as Error).message).toBe('multipart: "meta" is 4 bytes, declared 3');
   });
 
   it('fails the stream with input.changed when a file shrank after it was measured', async () => {

@@ -3,10 +3,8 @@
  * the connection takes them, so a build of any size is uploaded without holding it in memory.
  * The total length is known up front from the file sizes, so the request carries a
  * Content-Length and the server can refuse an oversized upload before reading it.
- * Each file is hashed (SHA-256) as it streams, so a part that depends on the content (the
- * build's idempotency key) can come last without a separate reading pass before the upload.
  */
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
 import { open, type FileHandle } from 'node:fs/promises';
 import { CliError } from './cli-error';
 import { ExitCode } from './exit-codes';
@@ -31,29 +29,8 @@ export interface MultipartFile {
   contentType?: string;
 }
 
-/** A file part as this stream sent it. */
-export interface SentFile {
-  fileName: string;
-  /** SHA-256 of the bytes sent, lowercase hex. */
-  sha256: string;
-}
-
-/**
- * A text field whose value is only made when the stream reaches it, from the files sent before
- * it. Its length must be known up front (for Content-Length): a value of another length fails
- * the stream.
- */
-export interface MultipartLateField {
-  kind: 'late-field';
-  name: string;
-  /** UTF-8 length of every value `value` returns. */
-  byteLength: number;
-  value: (sentFiles: readonly SentFile[]) => string;
-  contentType?: string;
-}
-
 /** One part of the body, in the order it is sent. */
-export type MultipartPart = MultipartField | MultipartFile | MultipartLateField;
+export type MultipartPart = MultipartField | MultipartFile;
 
 /** A body that can be streamed as often as an upload is attempted. */
 export interface MultipartBody {
@@ -81,7 +58,7 @@ const CRLF = '\r\n';
 
 /**
  * Lays out the parts and returns the body; nothing is read until a stream is opened.
- * @param boundary a fixed boundary for tests; by default 24 random bytes in hex, which no file
+ * @param boundary a fixed boundary for tests; by default 30 random bytes in hex, which no file
  *   will contain by chance (RFC 2046 §5.1.1 asks only that it not occur in the content).
  */
 export function createMultipartBody(parts: readonly MultipartPart[], boundary = newBoundary()): MultipartBody {
@@ -114,32 +91,17 @@ async function* bodyChunks(
   nextBuffer: () => Buffer
 ): AsyncGenerator<Uint8Array, void, undefined> {
   const crlf = Buffer.from(CRLF);
-  const sentFiles: SentFile[] = [];
   for (const [index, part] of parts.entries()) {
     yield heads[index];
     if (part.kind === 'field') yield Buffer.from(part.value, 'utf8');
-    else if (part.kind === 'late-field') yield lateValue(part, sentFiles);
-    else sentFiles.push({ fileName: part.fileName, sha256: yield* fileChunks(part, nextBuffer) });
+    else yield* fileChunks(part, nextBuffer);
     yield crlf;
   }
   yield tail;
 }
 
-function lateValue(part: MultipartLateField, sentFiles: readonly SentFile[]): Buffer {
-  const value = Buffer.from(part.value(sentFiles), 'utf8');
-  // A bug, not an input error: the declared length is already in the Content-Length.
-  if (value.length !== part.byteLength) {
-    throw new Error(`multipart: "${part.name}" is ${value.length} bytes, declared ${part.byteLength}`);
-  }
-  return value;
-}
-
-/** Yields the file's chunks and returns the SHA-256 (hex) of what it yielded. */
-async function* fileChunks(
-  file: MultipartFile,
-  nextBuffer: () => Buffer
-): AsyncGenerator<Uint8Array, string, undefined> {
-  const hash = createHash('sha256');
+/** Yields the file's chunks, failing when the file is no longer the size measured before. */
+async function* fileChunks(file: MultipartFile, nextBuffer: () => Buffer): AsyncGenerator<Uint8Array, void, undefined> {
   let byteLength = 0;
   let handle: FileHandle | null = null;
   try {
@@ -151,9 +113,7 @@ async function* fileChunks(
       byteLength += bytesRead;
       // Past the measured size the Content-Length would be a lie; stop before sending it.
       if (byteLength > file.byteLength) break;
-      const chunk = buffer.subarray(0, bytesRead);
-      hash.update(chunk);
-      yield chunk;
+      yield buffer.subarray(0, bytesRead);
     }
   } catch (error) {
     const reason = (error as { code?: string }).code ?? (error as Error).message;
@@ -171,7 +131,6 @@ async function* fileChunks(
       ExitCode.UsageError
     );
   }
-  return hash.digest('hex');
 }
 
 /** `--boundary`, Content-Disposition and Content-Type lines, and the blank line before the content. */

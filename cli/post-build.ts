@@ -1,9 +1,8 @@
 /**
  * Sends one build to the server: `POST /api/v1/projects/{project}/builds` with the streamed
  * multipart body, retried on network errors, timeouts and 5xx/429 answers with the same body
- * and idempotency key (in `meta`, and in the `Idempotency-Key` header once it is known, so a
- * build the server already stored is answered without the body being read), and the answer
- * validated into a {@link BuildAnswer}.
+ * (so the same idempotency key: given, or derived by the server from the same files), and the
+ * answer validated into a {@link BuildAnswer}.
  */
 import { z } from 'zod';
 import { version as packageVersion } from '../package.json';
@@ -56,10 +55,10 @@ export interface PostBuildRequest {
   project: string;
   token: string;
   /**
-   * The key when it is known before an attempt, sent as the `Idempotency-Key` header so a server
-   * that stored it answers before the body is read; null sends no header (the key is in `meta`).
+   * A given key, also sent as the `Idempotency-Key` header so a server that stored it answers
+   * before the body is read; null sends no header (meta asks the server to derive the key).
    */
-  idempotencyKey: () => string | null;
+  idempotencyKey: string | null;
   body: MultipartBody;
   retry: RetryPolicy;
   timeoutSeconds: number;
@@ -96,7 +95,7 @@ export async function postBuild(request: PostBuildRequest, hooks: RetryHooks): P
 /** One attempt: the whole body streamed and the answer read, within the timeout. */
 async function send(url: URL, request: PostBuildRequest): Promise<HttpAnswer> {
   const { body, progress } = request;
-  const idempotencyKey = request.idempotencyKey();
+  const { idempotencyKey } = request;
   let sentBytes = 0;
   progress.start(body.byteLength);
   return exchange(url, {

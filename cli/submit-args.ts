@@ -21,7 +21,7 @@ export interface SubmitOptions {
   branch: string | null;
   label: string | null;
   ciJobUrl: string | null;
-  /** null means derived from the build's content (see idempotency-key.ts). */
+  /** null: the server derives it from the build's details and content (see commands/submit.ts). */
   idempotencyKey: string | null;
   /** File holding the API token; null means the ORIENTRY_TOKEN environment variable. */
   tokenFilePath: string | null;
@@ -85,7 +85,7 @@ export const SUBMIT_OPTIONS: readonly OptionSpec[] = [
     type: 'string',
     valueName: 'key',
     description:
-      'Key that makes a repeated submission answer the first build. Default: derived from project, branch, commit, label and the files, so a retried CI job re-uses it.'
+      'Key that makes a repeated submission answer the first build. Default: the server derives one from project, branch, commit, label and the files, so a retried CI job gets the same.'
   },
   {
     name: 'token-file',

@@ -14,7 +14,6 @@ import type { CommandContext } from '../command-context';
 import { ExitCode } from '../exit-codes';
 import { fetchBuildReport, type ServerReportFormat } from '../fetch-build-report';
 import { expandInputs } from '../files';
-import { DERIVED_KEY_SHAPE, deriveIdempotencyKey } from '../idempotency-key';
 import { createMultipartBody, type MultipartBody, type MultipartPart } from '../multipart-body';
 import { plural } from '../plural';
 import { postBuild } from '../post-build';
@@ -39,7 +38,7 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
   for (const pattern of unmatchedPatterns) warn(`"${pattern}" matched no .glb or .gltf file`);
   const files = await collectUploadFiles(assets, rootPath, warn);
 
-  const upload = buildUpload({ project: options.project, details, files, idempotencyKey: options.idempotencyKey });
+  const body = buildUploadBody({ details, files, idempotencyKey: options.idempotencyKey });
   context.stderr.write(`${PREFIX} ${describeSubmission(options, details, sources, files)}\n`);
 
   const retry: RetryPolicy = {
@@ -58,8 +57,8 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
       serverUrl: options.serverUrl,
       project: options.project,
       token,
-      idempotencyKey: upload.knownKey,
-      body: upload.body,
+      idempotencyKey: options.idempotencyKey,
+      body,
       retry,
       timeoutSeconds: options.timeoutSeconds,
       progress
@@ -92,44 +91,26 @@ export async function submit(options: SubmitOptions, context: CommandContext): P
   return posted.build.verdict === 'fail' ? ExitCode.GateFailed : ExitCode.Pass;
 }
 
-/** A build upload's body, and its idempotency key once it is known. */
-interface BuildUpload {
-  body: MultipartBody;
-  /**
-   * The key, for the `Idempotency-Key` header: a given key from the start, a derived one once a
-   * first attempt has streamed (and hashed) every file, so a retry is answered before its body.
-   */
-  knownKey: () => string | null;
-}
-
 /**
- * Every file under its upload path, then the `meta` part (RFC 7578 keeps the order). A derived
- * key comes from the SHA-256 of each file as it streams, so `meta` goes last: the files are read
- * once, and the first byte leaves without a hashing pass over the whole build before it.
+ * The `meta` part first, then every file under its upload path (RFC 7578 keeps the order).
+ * Without --idempotency-key, meta asks the server to derive the key from the build details and
+ * the SHA-256 of each file, which it computes anyway to store them by content: a retried or
+ * repeated submission of the same build is answered with the build already stored.
  */
-function buildUpload(input: {
-  project: string;
+function buildUploadBody(input: {
   details: BuildDetails;
   files: readonly UploadFile[];
   idempotencyKey: string | null;
-}): BuildUpload {
-  const { project, details, files } = input;
-  let key = input.idempotencyKey;
-  const metaOf = (idempotencyKey: string) => JSON.stringify({ ...details, idempotencyKey });
+}): MultipartBody {
+  const { details, files, idempotencyKey } = input;
   const meta: MultipartPart = {
-    kind: 'late-field',
+    kind: 'field',
     name: 'meta',
     contentType: 'application/json; charset=utf-8',
-    // Derived keys all have one length (see idempotency-key.ts), so any stands in for the length.
-    byteLength: Buffer.byteLength(metaOf(key ?? DERIVED_KEY_SHAPE), 'utf8'),
-    value: (sentFiles) => {
-      key ??= deriveIdempotencyKey({
-        project,
-        ...details,
-        files: sentFiles.map((file) => ({ uploadPath: file.fileName, sha256: file.sha256 }))
-      });
-      return metaOf(key);
-    }
+    value: JSON.stringify({
+      ...details,
+      ...(idempotencyKey === null ? { deriveIdempotencyKey: true } : { idempotencyKey })
+    })
   };
   const fileParts = files.map((file): MultipartPart => ({
     kind: 'file',
@@ -138,7 +119,7 @@ function buildUpload(input: {
     absolutePath: file.absolutePath,
     byteLength: file.byteLength
   }));
-  return { body: createMultipartBody([...fileParts, meta]), knownKey: () => key };
+  return createMultipartBody([meta, ...fileParts]);
 }
 
 /** What fetching (or, failing that, rendering) the report needs. */

@@ -244,30 +244,35 @@ describe('orientry submit', () => {
     expect(build).toMatchObject({ branch: 'art/buoy', commitSha: git('rev-parse', 'HEAD') });
   });
 
-  it('retries a 503 with the same idempotency key and stores one build', async () => {
-    // A proxy that answers the first request 503 (after reading its body), then passes requests on.
-    const keys: string[] = [];
+  it('retries after an answer that was lost, and the server answers the retry with the build it stored', async () => {
+    // A proxy that passes every request on, but answers the first one 503 once the server has
+    // stored it: the first attempt's answer is lost. The retry sends the same files and details,
+    // so the server derives the same key and answers with the stored build.
+    const metas: unknown[] = [];
     const headerKeys: (string | undefined)[] = [];
     let requests = 0;
     const proxy = http.createServer((request, response) => {
-      requests++;
+      const attempt = ++requests;
       const chunks: Buffer[] = [];
       request.on('data', (chunk: Buffer) => chunks.push(chunk));
       request.on('end', () => {
         const body = Buffer.concat(chunks);
-        keys.push(/"idempotencyKey":"([^"]+)"/.exec(body.toString('latin1'))?.[1] ?? '');
+        metas.push(
+          JSON.parse(/name="meta"\r\nContent-Type: [^\r]+\r\n\r\n(.*?)\r\n--/s.exec(body.toString('utf8'))![1])
+        );
         headerKeys.push(request.headers['idempotency-key'] as string | undefined);
-        if (requests === 1) {
-          response.writeHead(503, { 'content-type': 'application/json', 'retry-after': '0' });
-          response.end(JSON.stringify({ error: { code: 'server.busy', message: 'Restarting.' } }));
-          return;
-        }
         const target = new URL(request.url!, server.url);
         const forwarded = http.request(target, {
           method: request.method,
           headers: { ...request.headers, host: target.host, origin: server.url }
         });
         forwarded.on('response', (answer) => {
+          if (attempt === 1) {
+            answer.resume();
+            response.writeHead(503, { 'content-type': 'application/json', 'retry-after': '0' });
+            response.end(JSON.stringify({ error: { code: 'server.busy', message: 'Restarting.' } }));
+            return;
+          }
           response.writeHead(answer.statusCode!, answer.headers);
           answer.pipe(response);
         });
@@ -285,14 +290,15 @@ describe('orientry submit', () => {
       );
       expect(run.status, run.stderr).toBe(0);
       expect(run.stderr).toContain('attempt 1 of 5 failed (HTTP 503 server.busy: Restarting.)');
-      expect(keys).toHaveLength(2);
-      expect(keys[1]).toBe(keys[0]);
-      expect(keys[0]).toMatch(/^cli1-[0-9a-f]{64}$/);
-      // The derived key comes from hashing the files as they stream, so the first attempt sends it
-      // in meta only; the retry also sends it as the Idempotency-Key header, so a server that
-      // stored the first attempt answers before the body.
-      expect(headerKeys).toEqual([undefined, keys[0]]);
+      expect(run.stdout).toContain('already submitted with this idempotency key');
+      // meta comes first and asks the server to derive the key; no key travels in a header.
+      expect(metas).toHaveLength(2);
+      expect(metas[0]).toMatchObject({ branch: 'main', commit: 'abab7777', deriveIdempotencyKey: true });
+      expect(metas[1]).toEqual(metas[0]);
+      expect(headerKeys).toEqual([undefined, undefined]);
       expect(await Build.count()).toBe(before + 1);
+      const stored = await Build.findByPk(reportedBuildId(run));
+      expect(stored?.idempotencyKey).toMatch(/^cli1-[0-9a-f]{64}$/);
     } finally {
       await new Promise((resolve) => proxy.close(resolve));
     }

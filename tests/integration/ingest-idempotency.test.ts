@@ -1,8 +1,10 @@
 /**
  * The `Idempotency-Key` header of a build upload through the real server: a stored key is
  * answered before the body is read, the header agrees with the key in meta or the upload is
- * refused, and a header alone keys a new build.
+ * refused, and a header alone keys a new build. Also the key the server derives when meta asks
+ * for one (`deriveIdempotencyKey: true`, what `orientry submit` sends without a key).
  */
+import crypto from 'node:crypto';
 import http from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Build } from '$lib/server/db/models';
@@ -230,5 +232,62 @@ describe('Idempotency-Key header', () => {
     expect(error.message).toContain('Idempotency-Key');
     expect(error.message).toContain(reason);
     expect(await countBuildRows(server.database)).toEqual(before);
+  });
+});
+
+describe('a key derived by the server (meta.deriveIdempotencyKey)', () => {
+  const sha256 = (bytes: Uint8Array | string) => crypto.createHash('sha256').update(bytes).digest('hex');
+  const details = { branch: 'feature/kelp-diver', commit: '5e1f0c2a', label: '#77', deriveIdempotencyKey: true };
+  let derivedId: number;
+
+  it("keys the build by the details and each file's path and SHA-256, as the CLI once did", async () => {
+    const response = await postBuild(server, 'tidewatch', secret, files, details);
+    expect(response.status).toBe(201);
+    derivedId = ((await response.json()) as BuildAnswer).build.id;
+    // The documented canonical form (derived-idempotency-key.ts), hashed with Node's SHA-256 (FIPS 180-4).
+    const canonical = JSON.stringify([
+      'orientry-submit-v1',
+      'tidewatch',
+      'feature/kelp-diver',
+      '5e1f0c2a',
+      '#77',
+      files.map((file) => [file.path, sha256(file.bytes)])
+    ]);
+    expect((await Build.findByPk(derivedId))?.idempotencyKey).toBe(`cli1-${sha256(canonical)}`);
+  });
+
+  it('answers the same upload again with the stored build, storing nothing new', async () => {
+    const before = await countBuildRows(server.database);
+    const response = await postBuild(server, 'tidewatch', secret, files, details);
+    expect(response.status).toBe(200);
+    expect(((await response.json()) as BuildAnswer).build.id).toBe(derivedId);
+    expect(await countBuildRows(server.database)).toEqual(before);
+    expect(listUploadFolders(server)).toEqual([]);
+  });
+
+  it('stores a new build when a file changed', async () => {
+    const changed = [{ ...files[0], bytes: Buffer.concat([Buffer.from(files[0].bytes), Buffer.alloc(4)]) }];
+    const response = await postBuild(server, 'tidewatch', secret, changed, details);
+    expect(response.status).toBe(201);
+    expect(((await response.json()) as BuildAnswer).build.id).not.toBe(derivedId);
+  });
+
+  it('uses a key that meta names instead of deriving one', async () => {
+    const response = await postBuild(server, 'tidewatch', secret, files, { ...details, idempotencyKey: 'ci-job-5200' });
+    expect(response.status).toBe(201);
+    const { id } = ((await response.json()) as BuildAnswer).build;
+    expect((await Build.findByPk(id))?.idempotencyKey).toBe('ci-job-5200');
+  });
+
+  it('stores every upload as a new build when meta neither names nor asks for a key', async () => {
+    const { deriveIdempotencyKey: _asked, ...plain } = details;
+    const first = await postBuild(server, 'tidewatch', secret, files, plain);
+    const second = await postBuild(server, 'tidewatch', secret, files, plain);
+    expect([first.status, second.status]).toEqual([201, 201]);
+    const ids = await Promise.all(
+      [first, second].map(async (response) => ((await response.json()) as BuildAnswer).build.id)
+    );
+    expect(ids[1]).not.toBe(ids[0]);
+    expect((await Build.findByPk(ids[0]))?.idempotencyKey).toBeNull();
   });
 });

@@ -40,6 +40,12 @@ export const buildMetaSchema = z
     /** Any client-chosen key: a repeated upload with the same key answers the first build. */
     idempotencyKey: printableText(200).nullish(),
     /**
+     * Without a key: true asks the server to derive one from the project, branch, commit, label
+     * and every file's path and SHA-256 (derived-idempotency-key.ts), as `orientry submit` does.
+     * A given key wins.
+     */
+    deriveIdempotencyKey: z.boolean().nullish(),
+    /**
      * When CI built it (ISO 8601 with an offset); defaults to the time the upload arrives.
      * Lets an importer replay past builds in order so baselines and trends follow build time.
      * At most five minutes ahead of the server's clock.

@@ -17,7 +17,8 @@ import { Build, Waiver, type Project } from '../db/models';
 import { ApiError } from './api-error';
 import { prefetchBaseline } from './baseline-prefetch';
 import { storeBlob } from './blob-store';
-import { parseBuildMeta } from './build-meta';
+import { parseBuildMeta, type BuildMeta } from './build-meta';
+import { deriveIdempotencyKey } from './derived-idempotency-key';
 import { discardBody } from './discard-body';
 import { agreedIdempotencyKey, IDEMPOTENCY_HEADER, parseIdempotencyHeader } from './idempotency-key';
 import { getIngestLimits } from './limits';
@@ -78,7 +79,9 @@ export async function ingestBuild(project: Project, request: Request, origin: st
     async function storeUpload(): Promise<IngestResult> {
       const upload = await receiveUpload(request, filesFolder, limits, { onFileReceived: linter.received });
       const meta = parseBuildMeta(upload.metaText);
-      const idempotencyKey = agreedIdempotencyKey(headerKey, meta.idempotencyKey);
+      const idempotencyKey =
+        agreedIdempotencyKey(headerKey, meta.idempotencyKey) ??
+        (meta.deriveIdempotencyKey ? derivedKeyOf(project, meta, upload.files) : null);
 
       const existing = await findByIdempotencyKey(project.id, idempotencyKey);
       if (existing) return { build: existing, isExisting: true };
@@ -130,6 +133,17 @@ export async function ingestBuild(project: Project, request: Request, origin: st
         throw error;
       }
     }
+  });
+}
+
+/** The key derived from where the build comes from and what it holds (derived-idempotency-key.ts). */
+function derivedKeyOf(project: Project, meta: BuildMeta, files: readonly ReceivedFile[]): string {
+  return deriveIdempotencyKey({
+    project: project.slug,
+    branch: meta.branch,
+    commit: meta.commit ?? null,
+    label: meta.label ?? null,
+    files: files.map((file) => ({ uploadPath: file.path, sha256: file.sha256 }))
   });
 }
 

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { DERIVED_KEY_SHAPE, deriveIdempotencyKey, type IdempotencyInput } from './idempotency-key';
+import { deriveIdempotencyKey, type IdempotencyInput } from './derived-idempotency-key';
 
 const sha = (text: string) => createHash('sha256').update(text).digest('hex');
 
@@ -15,6 +15,9 @@ const BASE: IdempotencyInput = {
     { uploadPath: 'props/buoy.glb', sha256: sha('buoy') }
   ]
 };
+
+/** deriveIdempotencyKey(BASE) as orientry submit 0.1.0 derived it on the CI machine. */
+const PREVIOUS_CLI_KEY = 'cli1-02535117bb4a8a746f788056c3f6453bde6df0999c2adc852645b39cc8fc2ff3';
 
 describe('deriveIdempotencyKey', () => {
   it('gives the same key for the same build, whatever order the files were collected in', () => {
@@ -43,9 +46,12 @@ describe('deriveIdempotencyKey', () => {
     expect(deriveIdempotencyKey(BASE)).toMatch(/^cli1-[0-9a-f]{64}$/);
   });
 
-  it('has the length of DERIVED_KEY_SHAPE, which sizes the upload before the key is known', () => {
-    expect(deriveIdempotencyKey(BASE)).toHaveLength(DERIVED_KEY_SHAPE.length);
-    expect(deriveIdempotencyKey({ ...BASE, label: null, files: [] })).toHaveLength(DERIVED_KEY_SHAPE.length);
+  it('stays the formula earlier CLIs used, so a build they stored is matched (a value they derived)', () => {
+    expect(deriveIdempotencyKey(BASE)).toBe(PREVIOUS_CLI_KEY);
+  });
+
+  it('tells a build without a commit from one with it', () => {
+    expect(deriveIdempotencyKey({ ...BASE, commit: null })).not.toBe(deriveIdempotencyKey(BASE));
   });
 
   const changes: { name: string; input: IdempotencyInput }[] = [
