@@ -5,7 +5,7 @@
  * row fails before anything is written.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { insertRows } from '$lib/server/db/insert-rows';
+import { escapeValues, insertRows } from '$lib/server/db/insert-rows';
 import { Asset, FindingRecord, Project } from '$lib/server/db/models';
 import { createStoredBuild } from './helpers/stored-build';
 import { openTempDatabase, type TempDatabase } from './temp-database';
@@ -63,6 +63,25 @@ describe('insertRows', () => {
     const asRow = (record: FindingRecord) => ALL_COLUMNS.map((column) => record.get(column));
     expect(stored.map(asRow)).toEqual(rows);
     await FindingRecord.destroy({ where: { buildId } });
+  });
+
+  it('takes a row partly escaped beforehand, as ingestion prepares finding columns, storing the same', async () => {
+    const { sequelize } = temp.database;
+    const rows = Array.from({ length: 1200 }, (_, index) => row(index));
+    // The first 15 columns escaped ahead, the last three given as values.
+    const prepared = rows.map((values) => [escapeValues(sequelize, values.slice(0, 15)), ...values.slice(15)]);
+    await sequelize.transaction((transaction) =>
+      insertRows(sequelize, FindingRecord.getTableName(), ALL_COLUMNS, prepared, transaction)
+    );
+    const stored = await FindingRecord.findAll({ where: { buildId }, order: [['id', 'ASC']] });
+    expect(stored.map((record) => ALL_COLUMNS.map((column) => record.get(column)))).toEqual(rows);
+    await FindingRecord.destroy({ where: { buildId } });
+    const tooNarrow = [[escapeValues(sequelize, rows[0].slice(0, 14)), ...rows[0].slice(15)]];
+    await expect(
+      sequelize.transaction((transaction) =>
+        insertRows(sequelize, FindingRecord.getTableName(), ALL_COLUMNS, tooNarrow, transaction)
+      )
+    ).rejects.toThrow('insertRows: a row of 17 values for 18 columns');
   });
 
   it('writes nothing and says so when a row has the wrong number of values', async () => {

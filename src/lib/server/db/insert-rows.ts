@@ -11,15 +11,32 @@
  * `query`): Sequelize's query path lower-cases and pattern-matches each statement's whole text
  * to guess what it is, which took another 20 ms for those rows. Other drivers go through
  * `sequelize.query`.
+ * Part of a row can come escaped beforehand ({@link escapeValues}): ingestion escapes each
+ * finding's own columns while the upload still arrives, so only the build's ids and standings
+ * are left for the write at the end (30 ms of the 5,650 rows' SQL text moved off that path).
  */
 import { QueryTypes, type Sequelize, type TableName, type Transaction } from 'sequelize';
 
 /** Rows per statement: keeps each statement's SQL text to a few hundred kilobytes. */
 const ROWS_PER_INSERT = 1000;
 
+/** SQL literals escaped for one database, standing for `width` consecutive columns of a row. */
+export class EscapedValues {
+  constructor(
+    readonly sql: string,
+    readonly width: number
+  ) {}
+}
+
+/** `values` as the comma-separated literals of `sequelize`'s dialect, for a row of {@link insertRows}. */
+export function escapeValues(sequelize: Sequelize, values: readonly unknown[]): EscapedValues {
+  return new EscapedValues(values.map((value) => escapeValue(sequelize, value)).join(','), values.length);
+}
+
 /**
  * Inserts `rows` (each with one value per column, in `columns` order) into `table`.
- * Values may be strings, finite numbers, booleans or null.
+ * Values may be strings, finite numbers, booleans, null, or {@link EscapedValues} for several
+ * columns at once.
  */
 export async function insertRows(
   sequelize: Sequelize,
@@ -43,18 +60,27 @@ export async function insertRows(
   for (let start = 0; start < rows.length; start += ROWS_PER_INSERT) {
     const tuples: string[] = [];
     for (const row of rows.slice(start, start + ROWS_PER_INSERT)) {
-      if (row.length !== columns.length) {
-        throw new Error(`insertRows: a row of ${row.length} values for ${columns.length} columns`);
+      let width = 0;
+      const literals = row.map((value) => {
+        if (value instanceof EscapedValues) {
+          width += value.width;
+          return value.sql;
+        }
+        width++;
+        return escapeValue(sequelize, value);
+      });
+      if (width !== columns.length) {
+        throw new Error(`insertRows: a row of ${width} values for ${columns.length} columns`);
       }
-      tuples.push(`(${row.map(escapeValue).join(',')})`);
+      tuples.push(`(${literals.join(',')})`);
     }
     await run(head + tuples.join(','));
   }
+}
 
-  /** NULL for null; otherwise the dialect's literal (Sequelize's `escape` is typed narrower than it accepts). */
-  function escapeValue(value: unknown): string {
-    return value === null ? 'NULL' : sequelize.escape(value as string | number);
-  }
+/** NULL for null; otherwise the dialect's literal (Sequelize's `escape` is typed narrower than it accepts). */
+function escapeValue(sequelize: Sequelize, value: unknown): string {
+  return value === null ? 'NULL' : sequelize.escape(value as string | number);
 }
 
 /** The parts of the driver connections used here (sqlite3's Database, pg's Client). */

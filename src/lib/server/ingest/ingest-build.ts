@@ -13,6 +13,7 @@ import { policyVersionOf } from '../../lint/policy';
 import { ENGINE_VERSION } from '../../lint/version';
 import { findProjectPolicy } from '../builds/find-project-policy';
 import { getConfig } from '../config';
+import { getDatabase } from '../db/instance';
 import { Build, Waiver, type Project } from '../db/models';
 import { ApiError } from './api-error';
 import { prefetchBaseline } from './baseline-prefetch';
@@ -20,6 +21,7 @@ import { storeBlob } from './blob-store';
 import { parseBuildMeta, type BuildMeta } from './build-meta';
 import { deriveIdempotencyKey } from './derived-idempotency-key';
 import { discardBody } from './discard-body';
+import { prepareFindingRowValues } from './finding-row-values';
 import { agreedIdempotencyKey, IDEMPOTENCY_HEADER, parseIdempotencyHeader } from './idempotency-key';
 import { getIngestLimits } from './limits';
 import { isAssetFile } from './lint-upload';
@@ -69,7 +71,10 @@ export async function ingestBuild(project: Project, request: Request, origin: st
     const filesFolder = path.join(folder, 'files');
     await fs.promises.mkdir(filesFolder);
     // Assets are linted as they arrive; the folder must outlive every lint, whatever happens.
-    const linter = createUploadLinter(filesFolder, policy, policyVersion);
+    const { sequelize } = getDatabase();
+    const linter = createUploadLinter(filesFolder, policy, policyVersion, (asset) =>
+      prepareFindingRowValues(sequelize, asset.report.findings)
+    );
     try {
       return await storeUpload();
     } finally {

@@ -35,8 +35,16 @@ export interface UploadLinter {
   settle(): Promise<void>;
 }
 
-/** Makes the linter for an upload received into `filesFolder`, under `policy`. */
-export function createUploadLinter(filesFolder: string, policy: Policy, policyVersion: string): UploadLinter {
+/**
+ * Makes the linter for an upload received into `filesFolder`, under `policy`.
+ * @param onLinted called with each asset linted while the upload arrives, to prepare its rows.
+ */
+export function createUploadLinter(
+  filesFolder: string,
+  policy: Policy,
+  policyVersion: string,
+  onLinted: (asset: LintedAsset) => void = () => {}
+): UploadLinter {
   const digests = new Map<string, string>();
   const finals = new Map<string, LintedAsset>();
   // As many lints at once as there are lint threads; one at a time when they run on this thread.
@@ -48,7 +56,9 @@ export function createUploadLinter(filesFolder: string, policy: Policy, policyVe
   const lintEarly = async (file: ReceivedFile) => {
     if (isStopped || failure) return;
     const linted = await lintReceivedAsset(file, filesFolder, policy, policyVersion, digests);
-    if (readAllSideFiles(linted)) finals.set(file.path, linted);
+    if (!readAllSideFiles(linted)) return;
+    finals.set(file.path, linted);
+    onLinted(linted);
   };
 
   return {

@@ -12,12 +12,13 @@
  * missed, and asset ids are read back by path (paths are unique within a build).
  */
 import type { InferCreationAttributes } from 'sequelize';
-import { FINDING_COLUMN_NAMES, findingValuesOf } from '../builds/finding-columns';
+import { FINDING_COLUMN_NAMES } from '../builds/finding-columns';
 import { reportPathOf } from '../builds/build-summary';
 import { getDatabase } from '../db/instance';
 import { insertRows } from '../db/insert-rows';
 import { Asset, Build, FindingRecord, type Project } from '../db/models';
 import { assetSideFiles } from './asset-side-file';
+import { findingRowValues } from './finding-row-values';
 import { runBuildStoredHooks } from './build-stored-hooks';
 import { queueSqliteWrite } from './sqlite-write-queue';
 import type { LintedAsset } from './lint-upload';
@@ -128,7 +129,7 @@ export async function writeBuild(
       const findingRows = plan.assets.flatMap((planned) => {
         const assetId = assetIdByPath.get(planned.report.path)!;
         return planned.findings.map(({ finding, status, waiverId }) => [
-          ...findingValuesOf(finding),
+          findingRowValues(sequelize, finding),
           build.id,
           assetId,
           status,
