@@ -9,9 +9,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 import pLimit from 'p-limit';
 import { UniqueConstraintError } from 'sequelize';
+import type { AssetReport } from '../../lint/lint-report';
 import { policyVersionOf } from '../../lint/policy';
 import { ENGINE_VERSION } from '../../lint/version';
 import { findProjectPolicy } from '../builds/find-project-policy';
+import { findFindingsById, type StandingEntry } from '../builds/find-standing-findings';
 import { getConfig } from '../config';
 import { getDatabase } from '../db/instance';
 import { Build, Waiver, type Project } from '../db/models';
@@ -25,7 +27,7 @@ import { prepareFindingRowValues } from './finding-row-values';
 import { agreedIdempotencyKey, IDEMPOTENCY_HEADER, parseIdempotencyHeader } from './idempotency-key';
 import { getIngestLimits } from './limits';
 import { isAssetFile } from './lint-upload';
-import { planBuild } from './plan-build';
+import { fixedBaselineFindings, planBuild, type PlanBaseline } from './plan-build';
 import { DRAIN_EXTRA_BYTES, receiveUpload, type ReceivedFile } from './receive-upload';
 import { withUploadFolder } from './upload-folder';
 import { createUploadLinter } from './upload-linter';
@@ -100,9 +102,10 @@ export async function ingestBuild(project: Project, request: Request, origin: st
         Waiver.findAll({ where: { projectId: project.id, status: 'approved' } })
       ]);
       const checked = linted.filter((asset) => !asset.report.skipped);
+      const reports = checked.map((asset) => asset.report);
       const plan = planBuild(
-        checked.map((asset) => asset.report),
-        baselineFindings,
+        reports,
+        baselineFindings && (await wholeFixedFindings(reports, baselineFindings)),
         waivers,
         policy,
         builtAt
@@ -139,6 +142,23 @@ export async function ingestBuild(project: Project, request: Request, origin: st
       }
     }
   });
+}
+
+/** The baseline for planBuild, with the findings this build fixes read whole (the rest need not be). */
+async function wholeFixedFindings(
+  reports: readonly AssetReport[],
+  baselineFindings: readonly StandingEntry[]
+): Promise<PlanBaseline<StandingEntry>> {
+  const fixed = await findFindingsById(fixedBaselineFindings(reports, baselineFindings).map((entry) => entry.id));
+  return {
+    findings: baselineFindings,
+    fixedFinding: (entry) => {
+      const finding = fixed.get(entry.id);
+      // Stored builds are never edited, so only a deletion during the upload gets here.
+      if (!finding) throw new Error(`baseline finding ${entry.id} disappeared while the build was compared with it`);
+      return finding;
+    }
+  };
 }
 
 /** The key derived from where the build comes from and what it holds (derived-idempotency-key.ts). */

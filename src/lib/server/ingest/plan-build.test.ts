@@ -3,7 +3,7 @@ import { fingerprintOf, type Finding, type Severity } from '$lib/lint/finding';
 import type { AssetReport } from '$lib/lint/lint-report';
 import { defaultPolicy } from '$lib/lint/policy';
 import type { WaiverTerms } from './find-waiver';
-import { planBuild } from './plan-build';
+import { fixedBaselineFindings, planBuild } from './plan-build';
 
 const now = new Date('2026-03-01T12:00:00Z');
 
@@ -55,7 +55,7 @@ describe('planBuild', () => {
     };
     const plan = planBuild(
       [report(diver, [unchanged, fresh]), report(buoy, [waived])],
-      [unchanged, gone],
+      { findings: [unchanged, gone], fixedFinding: (finding) => finding },
       [waiver],
       defaultPolicy(),
       now
@@ -77,6 +77,39 @@ describe('planBuild', () => {
     // The waived error and the fixed warning leave the buoy with nothing open.
     expect(buoyPlan.counts).toEqual({ error: 0, warning: 0, info: 0 });
     expect(buoyPlan.worstRule).toBeNull();
+  });
+
+  it('compares with a baseline of fingerprints only, and asks for the whole finding of just the fixed ones', () => {
+    const kept = finding('unit-drift', 'warning', diver, 0.5);
+    const gone = finding('wide-arc', 'warning', buoy, 2);
+    const elsewhere = finding('key-times', 'error', 'props/not-checked.glb', 1);
+    // As the server reads a baseline: id, fingerprint and asset path.
+    const entries = [kept, gone, elsewhere].map((whole, index) => ({
+      id: 100 + index,
+      fingerprint: whole.fingerprint,
+      asset: whole.asset
+    }));
+    const reports = [report(diver, [kept]), report(buoy, [])];
+    expect(fixedBaselineFindings(reports, entries).map((entry) => entry.id)).toEqual([101]);
+    const asked: number[] = [];
+    const plan = planBuild(
+      reports,
+      {
+        findings: entries,
+        fixedFinding: (entry) => {
+          asked.push(entry.id);
+          return gone;
+        }
+      },
+      [],
+      defaultPolicy(),
+      now
+    );
+    // An asset the build did not check keeps its baseline findings out of the plan (not fixed).
+    expect(asked).toEqual([101]);
+    expect(plan.counts).toMatchObject({ unchanged: 1, fixed: 1, new: 0 });
+    expect(plan.assets[1].findings).toEqual([{ finding: gone, status: 'fixed', waiverId: null }]);
+    expect(plan.assets[0].findings[0].finding).toBe(kept);
   });
 
   it('passes a clean first build with no baseline', () => {

@@ -7,7 +7,7 @@
 import { SEVERITY_RANK, type Finding, type Severity } from '../../lint/finding';
 import type { AssetReport } from '../../lint/lint-report';
 import type { Policy } from '../../lint/policy';
-import { compareWithBaseline, type BaselineStatus } from './compare-with-baseline';
+import { compareWithBaseline, type BaselineStatus, type ComparableFinding } from './compare-with-baseline';
 import { decideVerdict, type VerdictDecision } from './decide-verdict';
 import { findWaiver, type WaiverTerms } from './find-waiver';
 
@@ -52,19 +52,28 @@ export interface BuildPlan {
   decision: VerdictDecision;
 }
 
+/** The baseline build's present findings (what comparing needs of each), and the whole finding of one that is fixed. */
+export interface PlanBaseline<B extends ComparableFinding> {
+  findings: readonly B[];
+  /** Only called for the findings {@link fixedBaselineFindings} names. */
+  fixedFinding: (finding: B) => Finding;
+}
+
 /**
  * Plans a build from its checked assets' reports (skipped ones left out), the baseline build's
  * present findings (null without a baseline) and the project's waivers.
  */
-export function planBuild(
+export function planBuild<B extends ComparableFinding>(
   reports: readonly AssetReport[],
-  baselineFindings: readonly Finding[] | null,
+  baseline: PlanBaseline<B> | null,
   waivers: readonly WaiverTerms[],
   policy: Policy,
   now: Date
 ): BuildPlan {
-  const current = reports.flatMap((report) => report.findings);
-  const compared = compareWithBaseline(current, baselineFindings, new Set(reports.map((report) => report.path)));
+  const compared = compareReports(reports, baseline?.findings ?? null).map(({ finding, status }) => ({
+    finding: status === 'fixed' ? baseline!.fixedFinding(finding as B) : (finding as Finding),
+    status
+  }));
 
   const counts: BuildCounts = { error: 0, warning: 0, info: 0, new: 0, unchanged: 0, fixed: 0, waived: 0 };
   const byAsset = new Map<string, PlannedFinding[]>(reports.map((report) => [report.path, []]));
@@ -94,4 +103,22 @@ export function planBuild(
   });
 
   return { assets, counts, decision: decideVerdict(gateInput, policy.gate) };
+}
+
+/**
+ * The baseline's findings that the build fixes: the ones {@link planBuild} will need whole, so
+ * the caller can read just those (a baseline is read with only what comparing needs).
+ */
+export function fixedBaselineFindings<B extends ComparableFinding>(
+  reports: readonly AssetReport[],
+  baselineFindings: readonly B[]
+): B[] {
+  return compareReports(reports, baselineFindings)
+    .filter(({ status }) => status === 'fixed')
+    .map(({ finding }) => finding as B);
+}
+
+function compareReports<B extends ComparableFinding>(reports: readonly AssetReport[], baseline: readonly B[] | null) {
+  const current: (Finding | B)[] = reports.flatMap((report) => report.findings);
+  return compareWithBaseline(current, baseline, new Set(reports.map((report) => report.path)));
 }
