@@ -100,6 +100,7 @@ async function main(): Promise<void> {
   };
   let floorSum = 0;
   const bareRead = await measureMs(() => (floorSum += readEveryKey(channels)), RUNS, WARMUPS, freshChannels);
+  const cheapestTests = await measureMs(() => (floorSum += cheapestKeyTests(channels)), RUNS, WARMUPS, freshChannels);
   // The pass lintAsset runs (lint-document.ts), findings and all.
   const rulePass = await measureMs(() => runRules(channels, facts, ASSET_PATH, policy), RUNS, WARMUPS, freshChannels);
   const perRule: BenchRow[] = [];
@@ -131,6 +132,10 @@ async function main(): Promise<void> {
     {
       measure: 'Floor: a loop that only reads every key (values, and tangents on CUBICSPLINE)',
       value: `${formatTiming(bareRead)}, ${formatRate(keyCount, bareRead.medianMs)}`
+    },
+    {
+      measure: 'Floor: the cheapest tests per key (length², dot with the key before, four comparisons)',
+      value: `${formatTiming(cheapestTests)}, ${formatRate(keyCount, cheapestTests.medianMs)}`
     },
     { measure: 'Rule pass (all rules, as lintAsset runs it)', value: formatTiming(rulePass) },
     { measure: 'Whole lint (lintAsset)', value: `${formatTiming(wholeLint)}, ${findingCount} findings` },
@@ -202,6 +207,51 @@ function sumFloats(array: Float32Array, keyCount: number): number {
     sum += array[offset] + array[offset + 1] + array[offset + 2] + array[offset + 3];
   }
   return sum;
+}
+
+/**
+ * A lower bound for any rule pass that looks at every key: each key's squared length and its dot
+ * product with the key before, compared with four thresholds (drift, hemisphere, arc, repeat),
+ * counting the keys that fail one. No rule is this cheap: they also need times, tangents,
+ * speeds and interpolation. Returns the count so the loop cannot be dropped.
+ */
+function cheapestKeyTests(channels: readonly RotationChannel[]): number {
+  let flagged = 0;
+  for (const channel of channels) flagged += countCheapFailures(channel.values, channel.keyCount);
+  return flagged;
+}
+
+function countCheapFailures(values: Float32Array, keyCount: number): number {
+  let failures = 0;
+  let x1 = values[0];
+  let y1 = values[1];
+  let z1 = values[2];
+  let w1 = values[3];
+  let length1 = x1 * x1 + y1 * y1 + z1 * z1 + w1 * w1;
+  for (let offset = 4; offset < keyCount * 4; offset += 4) {
+    const x = values[offset];
+    const y = values[offset + 1];
+    const z = values[offset + 2];
+    const w = values[offset + 3];
+    const length = x * x + y * y + z * z + w * w;
+    const dot = x1 * x + y1 * y + z1 * z + w1 * w;
+    const dotSquared = dot * dot;
+    const lengthProduct = length * length1;
+    if (
+      !(length > 0.998 && length < 1.002) ||
+      dot < 0 ||
+      dotSquared < 0.067 * lengthProduct ||
+      dotSquared > 0.99999 * lengthProduct
+    ) {
+      failures++;
+    }
+    x1 = x;
+    y1 = y;
+    z1 = z;
+    w1 = w;
+    length1 = length;
+  }
+  return failures;
 }
 
 interface MemoryReport {
