@@ -153,4 +153,16 @@ describe('exchange', () => {
     const failure = await exchange(url, { method: 'GET', headers: {}, timeoutMs: 10_000 }).catch((error) => error);
     expect(failure).toBeInstanceOf(NetworkError);
   });
+
+  it('fails at once, without a stray timer, on a header value Node refuses', async () => {
+    const url = await serve(() => {});
+    const failure = await exchange(url, {
+      method: 'GET',
+      headers: { authorization: 'Bearer one\ntwo' },
+      timeoutMs: 50
+    }).catch((error) => error);
+    expect((failure as NodeJS.ErrnoException).code).toBe('ERR_INVALID_CHAR');
+    // Past the limit nothing else fires (a stray timer would throw on a request never made).
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  });
 });

@@ -46,6 +46,15 @@ export class NetworkError extends Error {
 export function exchange(url: URL, request: HttpExchange): Promise<HttpAnswer> {
   const transport = url.protocol === 'https:' ? https : http;
   return new Promise<HttpAnswer>((resolve, reject) => {
+    let outgoing: http.ClientRequest;
+    try {
+      // agent: false: one connection per exchange, closed after it, so nothing keeps the process alive.
+      outgoing = transport.request(url, { method: request.method, headers: request.headers, agent: false });
+    } catch (error) {
+      // A header value Node refuses (a control character): nothing was sent.
+      reject(error);
+      return;
+    }
     let isSettled = false;
     const settle = (outcome: () => void) => {
       if (isSettled) return;
@@ -58,8 +67,6 @@ export function exchange(url: URL, request: HttpExchange): Promise<HttpAnswer> {
     const fail = (error: unknown) => settle(() => reject(error));
     const timer = setTimeout(() => fail(timeoutError(request.timeoutMs)), request.timeoutMs);
 
-    // agent: false: one connection per exchange, closed after it, so nothing keeps the process alive.
-    const outgoing = transport.request(url, { method: request.method, headers: request.headers, agent: false });
     outgoing.on('response', (incoming) => {
       const chunks: Buffer[] = [];
       incoming.on('data', (chunk: Buffer) => chunks.push(chunk));
